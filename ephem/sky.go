@@ -1,0 +1,187 @@
+package ephem
+
+import (
+	"math"
+)
+
+// Position is where an object stands as seen from a site at an instant.
+type Position struct {
+	AltDeg     float64 // airless topocentric altitude
+	AzDeg      float64 // azimuth from north through east, [0, 360)
+	HourAngleH float64 // local apparent sidereal time − apparent RA, [-12, 12)
+	RAHours    float64 // apparent right ascension, true equator and equinox of date
+	DecDeg     float64 // apparent declination, true equator of date
+}
+
+// Sky is the view from one site at one instant: the local apparent sidereal
+// time and the rotations that turn a J2000 direction into altitude and
+// azimuth. It is cheap to make from a Frame (Frame.Sky) and cheap to ask about
+// many stars (Sky.Star).
+type Sky struct {
+	f    *Frame
+	t    Time
+	site Site
+	last float64 // local apparent sidereal time (rad)
+	hz   mat3    // true equator of date → (north, east, up)
+	full mat3    // J2000 → (north, east, up) = hz·np
+	obs  vec3    // observer's geocentric position, true equator of date (km)
+	beta vec3    // annual aberration v⊕/c, true equator of date
+	diur vec3    // diurnal aberration v_obs/c, true equator of date
+	abh  vec3    // beta + diur in the horizon frame
+}
+
+// earthRotRate is the Earth's rotation rate (rad/s).
+const earthRotRate = 7.292115e-5
+
+// cKMs is the speed of light in km/s.
+const cKMs = 299792.458
+
+// NewSky returns the view from site at instant t, computing its own Frame.
+// To compute many instants near each other, make one Frame and call Frame.Sky.
+func NewSky(site Site, t Time) *Sky {
+	return NewFrame(t).Sky(site, t)
+}
+
+// Sky returns the view from site at instant t. t should lie within a day of
+// the frame's own instant: precession, nutation and the direction of the
+// Earth's velocity are taken from the frame (their change over a day moves a
+// star by under 0.3″), while sidereal time, the Earth's position and the Sun
+// and Moon are computed for t itself.
+func (f *Frame) Sky(site Site, t Time) *Sky {
+	s := &Sky{f: f, t: t, site: site}
+	s.last = math.Mod(f.gast(t)+site.LonDeg*deg2rad+4*math.Pi, 2*math.Pi)
+	phi := site.LatDeg * deg2rad
+	sp, cp := math.Sincos(phi)
+	sl, cl := math.Sincos(s.last)
+	// Equatorial (true of date) → (north, east, up): rotate by the local
+	// sidereal time about the pole, then tilt by the latitude (Meeus eq. 13.5
+	// and 13.6 in vector form, azimuth from north).
+	s.hz = mat3{
+		{-sp * cl, -sp * sl, cp},
+		{-sl, cl, 0},
+		{cp * cl, cp * sl, sp},
+	}
+	s.full = s.hz.mulm(&f.np)
+	rs, rc := site.parallaxConstants()
+	s.obs = vec3{rc * cl * earthRadiusKM, rc * sl * earthRadiusKM, rs * earthRadiusKM}
+	v := f.bary[1].add(f.bary[2].scale(t.jd - f.t.jd)) // AU/day, J2000
+	s.beta = f.np.mul(v.scale(1 / lightDayAU))
+	w := earthRotRate * rc * earthRadiusKM / cKMs
+	s.diur = vec3{-w * sl, w * cl, 0}
+	s.abh = s.hz.mul(s.beta.add(s.diur))
+	return s
+}
+
+// Time returns the instant of the view.
+func (s *Sky) Time() Time { return s.t }
+
+// Site returns the site of the view.
+func (s *Sky) Site() Site { return s.site }
+
+// LocalSiderealHours returns the local apparent sidereal time in hours.
+func (s *Sky) LocalSiderealHours() float64 { return s.last * rad2deg / 15 }
+
+// position turns an apparent direction w (true equator of date, any length)
+// into a Position.
+func (s *Sky) position(w vec3) Position {
+	n := s.hz.mul(w)
+	r := w.norm()
+	alt := math.Asin(clamp1(n[2] / r))
+	az := math.Atan2(n[1], n[0])
+	if az < 0 {
+		az += 2 * math.Pi
+	}
+	ra, dec := vecToSph(w)
+	ha := math.Mod(s.last-ra+3*math.Pi, 2*math.Pi) - math.Pi
+	return Position{
+		AltDeg:     alt * rad2deg,
+		AzDeg:      az * rad2deg,
+		HourAngleH: ha * rad2deg / 15,
+		RAHours:    ra * rad2deg / 15,
+		DecDeg:     dec * rad2deg,
+	}
+}
+
+func clamp1(x float64) float64 { return math.Max(-1, math.Min(1, x)) }
+
+// apparent returns the apparent direction (true equator of date, unit) of a
+// star: proper motion to the instant, precession and nutation, then annual
+// and diurnal aberration (first order in v/c, which leaves under 1 mas).
+// Gravitational deflection by the Sun (under 0.02″ beyond 5° from it) is
+// neglected.
+func (s *Sky) apparent(v *StarVec) vec3 {
+	u := s.f.np.mul(v.at(s.f.jdTT))
+	return u.add(s.beta).add(s.diur).unit()
+}
+
+// Star returns where the star stands.
+func (s *Sky) Star(v *StarVec) Position {
+	return s.position(s.apparent(v))
+}
+
+// StarAltDeg returns only the airless altitude of the star: the fast path for
+// planning many stars at many instants.
+func (s *Sky) StarAltDeg(v *StarVec) float64 {
+	u := v.at(s.f.jdTT)
+	// J2000 → horizon in one matrix, aberration added in the horizon frame.
+	n := s.full.mul(u).add(s.abh)
+	return math.Asin(clamp1(n[2]/n.norm())) * rad2deg
+}
+
+// sunTopo returns the Sun's apparent topocentric direction (true equator of
+// date) and its geocentric distance (AU). The geometric direction comes from
+// the Earth's heliocentric position; aberration by the Earth's velocity then
+// gives the apparent place (together they make Meeus's −20.4898″/R).
+func (s *Sky) sunTopo() (vec3, float64) {
+	h := s.f.earthAt(&s.f.helio, s.t)
+	g := s.f.np.mul(h.scale(-auKM)) // geocentric Sun, km
+	d := g.sub(s.obs)
+	return d.unit().add(s.beta).add(s.diur), h.norm()
+}
+
+// Sun returns where the Sun stands (topocentric, apparent, airless).
+func (s *Sky) Sun() Position {
+	w, _ := s.sunTopo()
+	return s.position(w)
+}
+
+// moonGeo returns the Moon's apparent geocentric position (km, true equator
+// and equinox of date): Meeus 1998, ch. 47, with nutation in longitude added.
+func (s *Sky) moonGeo() vec3 {
+	return moonGeocentric(s.t.JDTT(), s.f.dpsi, s.f.eps)
+}
+
+// Moon returns where the Moon stands, seen from the site (topocentric: the
+// parallax reaches a degree).
+func (s *Sky) Moon() Position {
+	return s.position(s.moonGeo().sub(s.obs))
+}
+
+// MoonGeocentric returns the Moon's position computed from the Earth's centre
+// (no parallax), the definition used for moonrise and moonset (Meeus 1998,
+// ch. 15).
+func (s *Sky) MoonGeocentric() Position {
+	return s.position(s.moonGeo())
+}
+
+// MoonIllumination returns the Moon's illuminated fraction k = (1 + cos i)/2,
+// i the phase angle (Meeus 1998, eq. 48.1), seen from the Earth's centre.
+func (s *Sky) MoonIllumination() float64 {
+	m := s.moonGeo()
+	h := s.f.earthAt(&s.f.helio, s.t)
+	sun := s.f.np.mul(h.scale(-auKM))
+	i := angleBetween(sun.sub(m), m.scale(-1))
+	return (1 + math.Cos(i)) / 2
+}
+
+// MoonSeparationDeg returns the angle between the star and the Moon, both
+// seen from the site (topocentric Moon), in degrees.
+func (s *Sky) MoonSeparationDeg(v *StarVec) float64 {
+	return angleBetween(s.apparent(v), s.moonGeo().sub(s.obs)) * rad2deg
+}
+
+// SunSeparationDeg returns the angle between the star and the Sun in degrees.
+func (s *Sky) SunSeparationDeg(v *StarVec) float64 {
+	w, _ := s.sunTopo()
+	return angleBetween(s.apparent(v), w) * rad2deg
+}

@@ -1,0 +1,8 @@
+module vigil
+
+go 1.26.0
+
+require (
+	github.com/soniakeys/meeus/v3 v3.0.1
+	github.com/soniakeys/unit v1.0.0
+)
