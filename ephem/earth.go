@@ -24,14 +24,14 @@ const moonEMBFraction = 1 / 82.30057
 // reciprocal values of the IAU 2009 system (Luzum et al. 2011 [from memory]),
 // indexed as meeus/v3/planetelements.
 var planetMass = [8]float64{
-	1 / 6023600.0,  // Mercury
-	1 / 408523.71,  // Venus
-	1 / 328900.56,  // Earth + Moon
-	1 / 3098708.0,  // Mars
-	1 / 1047.3486,  // Jupiter
-	1 / 3497.898,   // Saturn
-	1 / 22902.98,   // Uranus
-	1 / 19412.24,   // Neptune
+	1 / 6023600.0, // Mercury
+	1 / 408523.71, // Venus
+	1 / 328900.56, // Earth + Moon
+	1 / 3098708.0, // Mars
+	1 / 1047.3486, // Jupiter
+	1 / 3497.898,  // Saturn
+	1 / 22902.98,  // Uranus
+	1 / 19412.24,  // Neptune
 }
 
 // earthHelioBary returns the position of the Earth's centre relative to the

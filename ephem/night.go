@@ -14,14 +14,14 @@ type Night struct {
 	Date       time.Time // the civil date the night begins on (0h UTC of it)
 	Start, End Time      // local mean noon to local mean noon
 
-	Sunset, Sunrise             Event // Sun's centre at −0.8333°, airless
-	CivilDusk, CivilDawn        Event // −6°
-	NauticalDusk, NauticalDawn  Event // −12°
-	AstroDusk, AstroDawn        Event // −18°
-	Moonrise, Moonset           Event // Moon's centre at +0.125°, geocentric; within the dark span only
-	MoonIllum                   float64
-	MoonIllumAt                 Time // the instant MoonIllum is computed for
-	SunAlwaysUp, SunAlwaysDown bool  // midnight sun / polar night (at −0.8333°)
+	Sunset, Sunrise            Event // Sun's centre at −0.8333°, airless
+	CivilDusk, CivilDawn       Event // −6°
+	NauticalDusk, NauticalDawn Event // −12°
+	AstroDusk, AstroDawn       Event // −18°
+	Moonrise, Moonset          Event // Moon's centre at +0.125°, geocentric; within the dark span only
+	MoonIllum                  float64
+	MoonIllumAt                Time // the instant MoonIllum is computed for
+	SunAlwaysUp, SunAlwaysDown bool // midnight sun / polar night (at −0.8333°)
 }
 
 // NightOf returns the night of date (its year, month and day are used) at
