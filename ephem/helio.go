@@ -69,8 +69,7 @@ func (s *Sky) observerJ2000() vec3 {
 // centre and n̂ the direction to the star (Eastman et al. 2010, eq. 1
 // without the relativistic terms, which stay under 1 ms).
 func (s *Sky) HJD(v *StarVec) float64 {
-	r := s.f.earthAt(&s.f.helio, s.t).add(s.observerJ2000())
-	return s.t.jd + r.dot(v.at(s.f.jdTT))*auLightDays
+	return s.f.lightTime(&s.f.helio, v, s.t, s.observerJ2000()) + s.t.jd
 }
 
 // BJDTDB returns the barycentric Julian date (TDB scale) of the instant for
@@ -78,9 +77,32 @@ func (s *Sky) HJD(v *StarVec) float64 {
 // solar-system barycentre (Eastman et al. 2010, eq. 1; the Shapiro delay and
 // the Einstein delay beyond TDB − TT stay under 0.2 ms and are neglected).
 func (s *Sky) BJDTDB(v *StarVec) float64 {
-	r := s.f.earthAt(&s.f.bary, s.t).add(s.observerJ2000())
-	tdb := s.t.jd + (ttMinusUTC(s.t.jd)+tdbMinusTT(s.f.jdTT))/secPerDay
-	return tdb + r.dot(v.at(s.f.jdTT))*auLightDays
+	return s.f.lightTime(&s.f.bary, v, s.t, s.observerJ2000()) + s.f.jdTDBAt(s.t)
+}
+
+// HJD returns the heliocentric Julian date (UTC) of instant t for the star
+// seen from the Earth's centre. The site's own offset, at most 21 ms, is left
+// out; use Sky.HJD to include it. t should lie within a day of the frame.
+func (f *Frame) HJD(v *StarVec, t Time) float64 {
+	return f.lightTime(&f.helio, v, t, vec3{}) + t.jd
+}
+
+// BJDTDB returns the barycentric Julian date (TDB) of instant t for the star
+// seen from the Earth's centre (see Frame.HJD).
+func (f *Frame) BJDTDB(v *StarVec, t Time) float64 {
+	return f.lightTime(&f.bary, v, t, vec3{}) + f.jdTDBAt(t)
+}
+
+// lightTime returns (r·n̂)/c in days for the Earth's centre placed by the
+// Taylor series c, plus the observer's offset obs (AU, J2000).
+func (f *Frame) lightTime(c *[3]vec3, v *StarVec, t Time, obs vec3) float64 {
+	r := f.earthAt(c, t).add(obs)
+	return r.dot(v.at(f.jdTT)) * auLightDays
+}
+
+// jdTDBAt returns the TDB Julian date of t.
+func (f *Frame) jdTDBAt(t Time) float64 {
+	return t.jd + (ttMinusUTC(t.jd)+tdbMinusTT(f.jdTT))/secPerDay
 }
 
 // JD returns the Julian date of the instant on the ephemeris time scale ts
@@ -108,43 +130,47 @@ func BJDTDBOf(t Time, star Star, site Site) float64 {
 
 // SeenAt returns the instant (UTC) at which an event that happens at Julian
 // date jd on scale ts (the ephemeris time) is seen at the site: the inverse of
-// HJD and BJD_TDB, solved by fixed-point iteration (the light-time changes by
+// HJD and BJD_TDB, solved by fixed-point iteration (the light time changes by
 // under 10 s per day, so each step gains four digits).
 func SeenAt(ts TimeScale, jd float64, star Star, site Site) (Time, error) {
-	if ts != HJD && ts != BJDTDB {
-		return Time{}, fmt.Errorf("ephem: unknown time scale %v", ts)
+	if err := site.Validate(); err != nil {
+		return Time{}, err
 	}
-	v := star.Vec()
+	if err := star.Validate(); err != nil {
+		return Time{}, err
+	}
 	if math.IsNaN(jd) || math.IsInf(jd, 0) {
 		return Time{}, fmt.Errorf("ephem: %s %v is not a number", ts.Label(), jd)
 	}
-	// A first guess one light-time correction away keeps the frame within a
-	// few minutes of the answer.
-	guess := jd
 	if jd < minJD+0.1 || jd >= maxJD-0.1 {
 		return Time{}, fmt.Errorf("ephem: %s %.6f is %w", ts.Label(), jd, ErrOutOfRange)
 	}
-	f := NewFrame(mustJD(guess))
-	return f.seenAt(ts, jd, &v, site)
+	v := star.Vec()
+	return NewFrame(mustJD(jd)).SeenAt(ts, jd, &v, &site)
 }
 
-// SeenAt is the inverse of Sky.HJD and Sky.BJDTDB for one frame: it returns
-// the UTC instant at which an event at Julian date jd (scale ts) is seen at
-// the site. jd must lie within a day of the frame's instant.
-func (f *Frame) SeenAt(ts TimeScale, jd float64, v *StarVec, site Site) (Time, error) {
-	return f.seenAt(ts, jd, v, site)
-}
-
-func (f *Frame) seenAt(ts TimeScale, jd float64, v *StarVec, site Site) (Time, error) {
+// SeenAt is the inverse of Sky.HJD and Sky.BJDTDB (site given) or of
+// Frame.HJD and Frame.BJDTDB (site nil: the Earth's centre): it returns the
+// UTC instant at which an event at Julian date jd on scale ts is seen. jd must
+// lie within a day of the frame's instant.
+func (f *Frame) SeenAt(ts TimeScale, jd float64, v *StarVec, site *Site) (Time, error) {
+	if ts != HJD && ts != BJDTDB {
+		return Time{}, fmt.Errorf("ephem: unknown time scale %v", ts)
+	}
 	t := mustJD(jd)
 	for i := 0; i < 8; i++ {
-		s := f.Sky(site, t)
-		var next float64
-		if ts == HJD {
-			next = t.jd + (jd - s.HJD(v))
-		} else {
-			next = t.jd + (jd - s.BJDTDB(v))
+		var got float64
+		switch {
+		case site != nil && ts == HJD:
+			got = f.Sky(*site, t).HJD(v)
+		case site != nil:
+			got = f.Sky(*site, t).BJDTDB(v)
+		case ts == HJD:
+			got = f.HJD(v, t)
+		default:
+			got = f.BJDTDB(v, t)
 		}
+		next := t.jd + (jd - got)
 		done := math.Abs(next-t.jd) < 1e-9 // 86 µs
 		t = mustJD(next)
 		if done {
