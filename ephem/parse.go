@@ -77,6 +77,10 @@ func ParseInstant(s string) (Time, error) {
 func ParseDate(s string) (time.Time, error) {
 	d, err := time.Parse("2006-01-02", strings.TrimSpace(s))
 	if err != nil {
+		var y, m, dd int
+		if n, _ := fmt.Sscanf(strings.TrimSpace(s), "%4d-%2d-%2d", &y, &m, &dd); n == 3 && len(strings.TrimSpace(s)) == 10 {
+			return time.Time{}, fmt.Errorf("ephem: date %q: no such day in the calendar", s)
+		}
 		return time.Time{}, fmt.Errorf("ephem: date %q: want YYYY-MM-DD, e.g. 2026-12-01", s)
 	}
 	if _, err := FromTime(d); err != nil {
