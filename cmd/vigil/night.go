@@ -39,7 +39,7 @@ type nightResponse struct {
 
 func runNight(e *env, args []string) error {
 	f := newFlags(e.cmd,
-		"--lat DEG --lon DEG [--elev METRES] [--date YYYY-MM-DD] [--json]",
+		"--lat DEG --lon DEG [--elev METRES] --date YYYY-MM-DD [--json]",
 		`The dark hours of one night at a site. The night of a date runs from local
 mean noon of that date to local mean noon of the next day (local mean time =
 UTC + longitude/15 h). Sunset and sunrise: the Sun's centre at -0.8333°

@@ -42,7 +42,7 @@ type skyResponse struct {
 
 func runSky(e *env, args []string) error {
 	f := newFlags(e.cmd,
-		"--lat DEG --lon DEG [--elev METRES] --ra HOURS --dec DEG [--at INSTANT] [--json]",
+		"--lat DEG --lon DEG [--elev METRES] --ra HOURS --dec DEG --at INSTANT [--json]",
 		`Where a star stands at one instant, seen from a site: airless and refracted
 altitude, azimuth from north through east, airmass (Pickering 2002; null when
 the star is below the apparent horizon), hour angle, HJD (UTC scale), BJD_TDB,
