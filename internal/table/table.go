@@ -198,6 +198,9 @@ func (r Row) Line() int { return r.t.rows[r.i].line }
 
 // Index returns the column index of col, or -1.
 func (t *Table) Index(col string) int {
+	if i, ok := t.cols[col]; ok { // already lower-case and trimmed: no allocation
+		return i
+	}
 	i, ok := t.cols[strings.ToLower(strings.TrimSpace(col))]
 	if !ok {
 		return -1
