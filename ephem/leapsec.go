@@ -3,6 +3,7 @@ package ephem
 import (
 	_ "embed"
 	"fmt"
+	"math"
 	"strconv"
 	"strings"
 	"time"
@@ -116,5 +117,15 @@ func ttMinusUTC(jd float64) float64 {
 	if off, ok := taiMinusUTC(jd); ok {
 		return off + 32.184
 	}
-	return float64(deltat.Interp10A(jd))
+	return deltaTTable(jd)
+}
+
+// deltaTTable returns ΔT (s) from Meeus's table 10.A at Julian date jd,
+// interpolated linearly between the values at consecutive 0h UTC: the
+// library's interpolation works in whole days, and this keeps ΔT continuous.
+func deltaTTable(jd float64) float64 {
+	d0 := math.Floor(jd-0.5) + 0.5 // 0h UTC on or before jd
+	a := float64(deltat.Interp10A(d0))
+	b := float64(deltat.Interp10A(d0 + 1))
+	return a + (b-a)*(jd-d0)
 }

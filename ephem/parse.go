@@ -155,65 +155,127 @@ func normLonDeg(v float64) float64 {
 	return v
 }
 
-// parseSexagesimal reads "[sign]A[sep]B[sep]C" or a decimal number. Separators
-// are ':' or blanks, or unit letters: "hms" for hours (h m s) and "dms" for
-// degrees (d ° m ′ ' s ″ "). B and C must be in [0, 60); the fraction is only
-// allowed on the last field. neg reports a leading minus sign, which matters
-// for "-00:30".
+// parseSexagesimal reads "[sign]A[sep]B[sep]C" or a decimal number. Fields
+// are separated by ':' or blanks, or marked by unit letters that must come in
+// order, each after its own field: "hms" kind takes h m s ("5h30m00s"), "dms"
+// kind takes d or ° for degrees, m ′ ' for minutes and s ″ " for seconds; the
+// last field may omit its mark ("5h30"). B and C must be in [0, 60); only the
+// last field may have a fraction. neg reports a leading minus sign, which
+// matters for "-00:30".
 func parseSexagesimal(s, kind string) (v float64, neg bool, err error) {
 	in := strings.TrimSpace(s)
 	if in == "" {
 		return 0, false, fmt.Errorf("empty value")
 	}
-	switch in[0] {
-	case '-':
-		neg = true
+	switch {
+	case strings.HasPrefix(in, "-"):
+		neg, in = true, in[1:]
+	case strings.HasPrefix(in, "+"):
 		in = in[1:]
-	case '+':
-		in = in[1:]
-	default:
-		if strings.HasPrefix(in, "−") { // U+2212 minus sign
-			neg = true
-			in = in[len("−"):]
-		}
+	case strings.HasPrefix(in, "−"): // U+2212 minus sign
+		neg, in = true, in[len("−"):]
 	}
 	in = strings.TrimSpace(in)
-	if in == "" || in[0] == '-' || in[0] == '+' {
-		return 0, false, fmt.Errorf("misplaced sign")
+	if in == "" {
+		return 0, false, fmt.Errorf("a sign without a number")
 	}
-	// Turn unit marks into blanks, remembering if any appeared.
-	repl := strings.NewReplacer(":", " ", "h", " ", "H", " ", "d", " ", "D", " ", "°", " ",
-		"m", " ", "M", " ", "′", " ", "'", " ", "s", " ", "S", " ", "″", " ", "\"", " ")
-	if kind == "hms" {
-		repl = strings.NewReplacer(":", " ", "h", " ", "H", " ", "m", " ", "M", " ", "s", " ", "S", " ")
+	unitOf := func(r rune) int {
+		if kind == "hms" {
+			switch r {
+			case 'h', 'H':
+				return 0
+			case 'm', 'M':
+				return 1
+			case 's', 'S':
+				return 2
+			}
+			return -1
+		}
+		switch r {
+		case 'd', 'D', '°':
+			return 0
+		case 'm', 'M', '′', '\'':
+			return 1
+		case 's', 'S', '″', '"':
+			return 2
+		}
+		return -1
 	}
-	fields := strings.Fields(repl.Replace(in))
+	type field struct {
+		text string
+		unit int // 0, 1, 2, or -1 when unmarked
+	}
+	var fields []field
+	var cur strings.Builder
+	colon, marked := false, false
+	flush := func(unit int) {
+		fields = append(fields, field{text: cur.String(), unit: unit})
+		cur.Reset()
+	}
+	for _, r := range in {
+		switch {
+		case r >= '0' && r <= '9' || r == '.':
+			cur.WriteRune(r)
+		case r == ':' || r == ' ' || r == '\t':
+			if r == ':' {
+				colon = true
+				if cur.Len() == 0 {
+					return 0, false, fmt.Errorf("empty field before ':'")
+				}
+			}
+			if cur.Len() > 0 {
+				flush(-1)
+			}
+		case unitOf(r) >= 0:
+			if cur.Len() == 0 {
+				return 0, false, fmt.Errorf("unit mark %q without a number before it", string(r))
+			}
+			marked = true
+			flush(unitOf(r))
+		default:
+			return 0, false, fmt.Errorf("unexpected character %q: want a number or fields like 05:30:00.0", string(r))
+		}
+	}
+	if cur.Len() > 0 {
+		flush(-1)
+	} else if colon && strings.HasSuffix(in, ":") {
+		return 0, false, fmt.Errorf("empty field after ':'")
+	}
 	if len(fields) == 0 || len(fields) > 3 {
 		return 0, false, fmt.Errorf("want a number or up to three fields like 05:30:00.0")
 	}
-	parts := make([]float64, len(fields))
+	if marked {
+		if colon {
+			return 0, false, fmt.Errorf("mixes ':' with unit marks")
+		}
+		for i := range fields {
+			if fields[i].unit < 0 {
+				if i != len(fields)-1 || i == 0 {
+					return 0, false, fmt.Errorf("field %q has no unit mark", fields[i].text)
+				}
+				fields[i].unit = fields[i-1].unit + 1
+			}
+			want := 0
+			if i > 0 {
+				want = fields[i-1].unit + 1
+			}
+			if fields[i].unit != want || fields[i].unit > 2 {
+				return 0, false, fmt.Errorf("unit marks out of order: want %s", map[string]string{"hms": "h, m, s", "dms": "d (or °), m, s"}[kind])
+			}
+		}
+	}
 	for i, f := range fields {
-		if strings.ContainsAny(f, "+-eEnNiI_xXpP") {
-			return 0, false, fmt.Errorf("field %q is not a plain number", f)
-		}
-		p, err := strconv.ParseFloat(f, 64)
+		p, err := strconv.ParseFloat(f.text, 64)
 		if err != nil || math.IsNaN(p) || math.IsInf(p, 0) {
-			return 0, false, fmt.Errorf("field %q is not a number", f)
+			return 0, false, fmt.Errorf("field %q is not a number", f.text)
 		}
-		if i < len(fields)-1 && strings.Contains(f, ".") {
-			return 0, false, fmt.Errorf("only the last field may have a fraction, not %q", f)
+		if i < len(fields)-1 && strings.Contains(f.text, ".") {
+			return 0, false, fmt.Errorf("only the last field may have a fraction, not %q", f.text)
 		}
 		if i > 0 && p >= 60 {
-			return 0, false, fmt.Errorf("minutes and seconds must be below 60, not %q", f)
+			return 0, false, fmt.Errorf("minutes and seconds must be below 60, not %q", f.text)
 		}
-		parts[i] = p
-	}
-	v = parts[0]
-	if len(parts) > 1 {
-		v += parts[1] / 60
-	}
-	if len(parts) > 2 {
-		v += parts[2] / 3600
+		v += p / math.Pow(60, float64(i))
 	}
 	if neg {
 		v = -v
