@@ -68,9 +68,11 @@ fuzz:
 	  done; \
 	done
 
-# Regenerate the astropy reference tables (needs Debian's python3-astropy).
+# Regenerate every reference table from its script (needs Debian's
+# python3-astropy and python3-numpy; runs offline). The scripts sit beside
+# the tables they write, under testdata/.
 refdata:
-	@for s in testdata/astropy/*.py; do echo "== $$s"; /usr/bin/python3 $$s || exit 1; done
+	@for s in $$(find testdata cmd -name '*.py' | sort); do echo "== $$s"; /usr/bin/python3 $$s || exit 1; done
 
 # Screenshots of every panel for the README (needs Xvfb and ImageMagick).
 screenshots: build
