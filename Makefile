@@ -53,8 +53,9 @@ unit:
 
 # Nothing below app may import the GUI or plotting libraries.
 layering:
-	@bad=$$($(GO) list -deps ./ephem/... ./observe/... ./reduce/... | grep -E 'fyne\.io|gonum\.org/v1/plot' || true); \
-	if [ -n "$$bad" ]; then echo "layering: ephem, observe and reduce must not import:"; echo "$$bad"; exit 1; fi
+	@deps=$$($(GO) list -deps vigil/ephem/... vigil/observe/... vigil/reduce/... vigil/internal/...) || exit 1; \
+	bad=$$(echo "$$deps" | grep -E 'fyne\.io|gonum\.org/v1/plot' || true); \
+	if [ -n "$$bad" ]; then echo "layering: ephem, observe, reduce and internal must not import:"; echo "$$bad"; exit 1; fi
 
 bench: deps
 	$(GO) test -run '^$$' -bench . -benchmem ./...
