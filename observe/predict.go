@@ -1,0 +1,213 @@
+package observe
+
+import (
+	"fmt"
+	"math"
+	"time"
+
+	"vigil/ephem"
+)
+
+// Event is one predicted extremum of a target and how well it can be
+// observed from the site.
+type Event struct {
+	Target      string // the target's name
+	TargetIndex int    // its index in the list the caller gave
+	Kind        Kind   // what the extremum is (a secondary minimum is Min)
+	Secondary   bool   // a secondary minimum at a half-integer cycle
+	Cycle       float64
+	// EphemerisJD is T0 + P·E (+ Q·E²), the Julian date on Scale at which
+	// the extremum happens; SigmaDays its uncertainty from σT0 and σP
+	// (ephem.Ephemeris.Sigma), growing with |E|.
+	EphemerisJD float64
+	Scale       ephem.TimeScale
+	SigmaDays   float64
+	// UTC is the instant at which the extremum is seen at the telescope
+	// (light time to the Sun's centre or the barycentre removed); Local is
+	// the same instant in the site's time zone.
+	UTC   ephem.Time
+	Local time.Time
+	// Where the star stands then: airless altitude, azimuth from north
+	// through east, air mass (Pickering 2002; NaN below the horizon).
+	AltDeg, AzDeg, Airmass float64
+	SunAltDeg, SunSepDeg   float64
+	MoonAltDeg, MoonSepDeg float64 // topocentric Moon
+	MoonIllum              float64 // illuminated fraction 0..1
+	// Observable is the verdict at the instant of the extremum; Reasons says
+	// why not.
+	Observable bool
+	Reasons    Reasons
+	Window     Coverage
+	// SolarWarning is set when the Sun is up and the star is within
+	// SolarWarningSepDeg of it: show SolarWarningText.
+	SolarWarning bool
+	// Score ranks the event in a plan (see the package documentation).
+	Score float64
+}
+
+// Coverage is the verdict over the window around an extremum.
+type Coverage struct {
+	Start, End    ephem.Time
+	HalfWidthDays float64
+	// UsableFraction is the part of the window in which the star is
+	// observable; Whole is set when all of it is (and the extremum itself).
+	UsableFraction float64
+	Whole          bool
+	Reasons        Reasons // why parts of the window are not usable
+}
+
+// eventTol is the tolerance (days, about 0.09 s) below which a window
+// counts as wholly usable.
+const eventTol = 1e-6
+
+// event evaluates the extremum at cycle of track tr, seen at jd (UTC),
+// whose coverage window ws holds (see windowSpans).
+func (tb *skyTable) event(tr *track, c *Constraints, cycle float64, secondary bool, jd float64, ws *winSpans) Event {
+	tg := tr.tg
+	eph := &tg.Ephemeris
+	T := eph.At(cycle)
+	e := Event{
+		Target: tg.Name, TargetIndex: tr.idx, Kind: tg.eventKind(secondary), Secondary: secondary,
+		Cycle: cycle, EphemerisJD: T, Scale: eph.Scale, SigmaDays: eph.Sigma(cycle),
+		UTC: mustTime(jd),
+	}
+	e.Local = e.UTC.Time().In(tb.site.Location())
+	z, sl, cl := tb.zenith(jd)
+	u := tb.apparent(tr, jd)
+	e.AltDeg, e.AzDeg = tb.altAz(u, sl, cl)
+	e.Airmass = math.NaN()
+	if e.AltDeg > -1 {
+		if x, ok := ephem.Airmass(ephem.RefractedAltDeg(e.AltDeg)); ok {
+			e.Airmass = x
+		}
+	}
+	sun := tb.sunVec(jd)
+	e.SunAltDeg = math.Asin(math.Max(-1, math.Min(1, sun.dot(z)))) * rad2deg
+	e.SunSepDeg = sepDeg(u, sun)
+	moon := tb.moonVec(jd)
+	e.MoonAltDeg = math.Asin(math.Max(-1, math.Min(1, moon.dot(z)))) * rad2deg
+	e.MoonSepDeg = sepDeg(u, moon)
+	e.MoonIllum = tb.moonIllum(jd)
+	e.SolarWarning = e.SunAltDeg > ephem.SunriseAltDeg && e.SunSepDeg < SolarWarningSepDeg
+
+	// The verdict at the instant.
+	site := tb.site
+	if !(e.SunAltDeg < c.SunAltDeg) {
+		if e.SunAltDeg > ephem.SunriseAltDeg {
+			e.Reasons |= Daylight
+		} else {
+			e.Reasons |= Twilight
+		}
+	}
+	if !(e.AltDeg > site.MinAltDeg) {
+		e.Reasons |= TooLow
+	} else if len(site.Horizon) > 0 && !(e.AltDeg > site.Horizon.AltDeg(e.AzDeg)) {
+		e.Reasons |= BehindHorizon
+	}
+	if c.MoonMinSepDeg > 0 && e.MoonAltDeg > 0 && e.MoonSepDeg < c.MoonMinSepDeg {
+		e.Reasons |= MoonTooClose
+	}
+	e.Observable = e.Reasons == 0
+
+	// The verdict over the window.
+	lo, hi := ws.lo, ws.hi
+	w := (hi - lo) / 2
+	cv := &e.Window
+	cv.Start, cv.End, cv.HalfWidthDays = mustTime(lo), mustTime(hi), w
+	good := ws.usable.total()
+	moonBad := tb.moonBad(tr, c, ws, jd, e.MoonSepDeg)
+	cv.UsableFraction = math.Max(0, (good-moonBad)/(2*w))
+	if moonBad > 0 {
+		cv.Reasons |= MoonTooClose
+	}
+	if good < 2*w-eventTol {
+		hiM := ws.high.total()
+		if hiM < 2*w-eventTol {
+			cv.Reasons |= TooLow
+		}
+		if ws.hc.total() < hiM-eventTol {
+			cv.Reasons |= BehindHorizon
+		}
+		if tb.dark.measure(lo, hi) < 2*w-eventTol {
+			if tb.night.measure(lo, hi) < 2*w-eventTol {
+				cv.Reasons |= Daylight
+			} else {
+				cv.Reasons |= Twilight
+			}
+		}
+	}
+	cv.Whole = e.Observable && cv.Reasons == 0 && cv.UsableFraction >= 1-eventTol
+	e.Score = score(&e, tg)
+	return e
+}
+
+// moonStepCheck is the step (days, 5 minutes) at which the Moon's distance
+// is checked across a window; moonRate bounds how fast the topocentric Moon
+// moves against the stars (degrees per day: its orbital motion, at most
+// about 15.4° per day, plus the change of its diurnal parallax).
+const (
+	moonStepCheck = 5.0 / 1440
+	moonRate      = 24.0
+)
+
+// moonBad returns the length (days) of the usable part of the window around
+// jd in which the Moon is up and closer than the limit.
+func (tb *skyTable) moonBad(tr *track, c *Constraints, ws *winSpans, jd, sepAtJD float64) float64 {
+	w := math.Max(jd-ws.lo, ws.hi-jd)
+	if c.MoonMinSepDeg <= 0 || sepAtJD-moonRate*w > c.MoonMinSepDeg {
+		return 0
+	}
+	bad := 0.0
+	ws.usable.each(ws.lo, ws.hi, func(a, b float64) {
+		n := int(math.Ceil((b - a) / moonStepCheck))
+		dt := (b - a) / float64(n)
+		for i := 0; i < n; i++ {
+			t := a + (float64(i)+0.5)*dt
+			z, _, _ := tb.zenith(t)
+			m := tb.moonVec(t)
+			if m.dot(z) > 0 && sepDeg(tb.apparent(tr, t), m) < c.MoonMinSepDeg {
+				bad += dt
+			}
+		}
+	})
+	return bad
+}
+
+// cycles calls fn for every cycle (and, with secondary, half cycle) whose
+// event could be seen in [from, to), in time order.
+func cycles(tg *Target, secondary bool, from, to float64, fn func(cycle float64, sec bool)) error {
+	eph := &tg.Ephemeris
+	// The light time is under 0.006 d and TT − UTC under 0.002 d: a margin
+	// of 0.02 d finds every event whose UTC instant lies in the span.
+	e0 := math.Floor(eph.Cycle(from-0.02)) - 1
+	e1 := math.Ceil(eph.Cycle(to+0.02)) + 1
+	n := e1 - e0
+	if secondary {
+		n *= 2
+	}
+	if n > maxEventsPerRun {
+		return fmt.Errorf("observe: target %q: %.0f events from %s to %s: at most %d; shorten the span",
+			tg.Name, n, mustTime(from), mustTime(to), maxEventsPerRun)
+	}
+	if eph.PeriodAt(e0) <= 0 || eph.PeriodAt(e1) <= 0 {
+		return fmt.Errorf("observe: target %q: the quadratic ephemeris gives a period P + 2QE ≤ 0 within the span", tg.Name)
+	}
+	for e := e0; e <= e1; e++ {
+		if secondary && e > e0 {
+			fn(e-0.5, true)
+		}
+		fn(e, false)
+	}
+	return nil
+}
+
+// Predict returns every extremum of target t whose UTC instant lies in
+// [from, to), in time order, each with its verdict at the site under the
+// constraints c (see Planner.Predict).
+func Predict(site Site, t Target, from, to ephem.Time, c Constraints) ([]Event, error) {
+	p, err := NewPlanner(site, c)
+	if err != nil {
+		return nil, err
+	}
+	return p.Predict(t, from, to)
+}
