@@ -355,7 +355,14 @@ func extremumHalfWidth(lc *extremumCurve, i0 int, smooth []float64, depth, frac 
 			break
 		}
 	}
-	return min(lc.t[i0]-tL, tR-lc.t[i0])
+	h := min(lc.t[i0]-tL, tR-lc.t[i0])
+	if !(h > 0) {
+		// Points share the extremum's time: start from the mean spacing so
+		// that widening the window can make progress (0 when every point
+		// has the same time, which the caller then refuses).
+		h = (lc.t[len(lc.t)-1] - lc.t[0]) / float64(len(lc.t))
+	}
+	return h
 }
 
 // extremumNoise estimates the scatter (magnitudes) of one point: the median

@@ -71,7 +71,7 @@ func extremumKvW(lc *extremumCurve, opt ExtremumOptions) (Timing, error) {
 		centre := lc.t[i0]
 		for iter := 0; ; iter++ {
 			sel := extremumSelect(lc.t, centre-h, centre+h)
-			for len(sel) < extremumMinPoints && opt.WindowDays == 0 && len(sel) < len(lc.t) {
+			for len(sel) < extremumMinPoints && opt.WindowDays == 0 && len(sel) < len(lc.t) && h > 0 {
 				h *= 1.25
 				sel = extremumSelect(lc.t, centre-h, centre+h)
 			}

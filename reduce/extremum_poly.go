@@ -66,7 +66,7 @@ func extremumPoly(lc *extremumCurve, opt ExtremumOptions) (Timing, error) {
 		centre := lc.t[i0]
 		for iter := 0; ; iter++ {
 			sel := extremumSelect(lc.t, centre-h, centre+h)
-			for len(sel) < extremumMinPoints && opt.WindowDays == 0 && len(sel) < len(lc.t) {
+			for len(sel) < extremumMinPoints && opt.WindowDays == 0 && len(sel) < len(lc.t) && h > 0 {
 				h *= 1.25 // too few points: widen the automatic window
 				sel = extremumSelect(lc.t, centre-h, centre+h)
 			}

@@ -10,6 +10,7 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+	"time"
 )
 
 // Units for tolerances.
@@ -511,4 +512,30 @@ func cepheidNoisy(truth float64) func(r uint64) []Point {
 // Carlo tests.
 func timingTestNoise(seed uint64) func() float64 {
 	return rand.New(rand.NewPCG(seed, 99)).NormFloat64
+}
+
+// TestExtremumSharedTimes is a regression found by fuzzing the command line:
+// points that share the extremum's time made the automatic window zero wide,
+// and widening it by a factor never ended. Either method must refuse such data
+// with an error, at once.
+func TestExtremumSharedTimes(t *testing.T) {
+	pts := []Point{
+		{T: 2460000.1, Mag: 10}, {T: 2460000.1, Mag: 10}, {T: 2460000.1, Mag: 1},
+		{T: 1, Mag: 0}, {T: 1, Mag: 0}, {T: 2460000.1, Mag: 0}, {T: 2460000.1, Mag: 0},
+	}
+	for _, m := range []ExtremumMethod{MethodPoly, MethodKvW} {
+		done := make(chan error, 1)
+		go func() {
+			_, err := Extremum(pts, ExtremumOptions{Kind: Minimum, Method: m})
+			done <- err
+		}()
+		select {
+		case err := <-done:
+			if err == nil {
+				t.Errorf("method %v: no error for points sharing one time", m)
+			}
+		case <-time.After(10 * time.Second):
+			t.Fatalf("method %v: Extremum still running after 10 s", m)
+		}
+	}
 }

@@ -138,13 +138,13 @@ func OC(eph ephem.Ephemeris, timings []Timing, opt OCOptions) (OCAnalysis, error
 			a.PreferredBy = fmt.Sprintf("the timings lie on the linear ephemeris to within %.2g d rms: no test needed", ocExactDays)
 		} else if a.FTestP < OCSignificance {
 			a.Preferred = "quadratic"
-			a.PreferredBy = fmt.Sprintf("F-test on the quadratic term: F = %.4g with (1, %d) degrees of freedom, p = %.3g < %g",
-				a.FTestF, q.Dof, a.FTestP, OCSignificance)
+			a.PreferredBy = fmt.Sprintf("F-test on the quadratic term: F = %.4g with (1, %d) degrees of freedom, %s, below the %g level",
+				a.FTestF, q.Dof, ocPText(a.FTestP), OCSignificance)
 			a.Warnings = append(a.Warnings,
 				"a parabola in the O−C may also be part of a light-travel-time orbit: check the residuals before claiming a period change")
 		} else {
-			a.PreferredBy = fmt.Sprintf("F-test on the quadratic term: F = %.4g with (1, %d) degrees of freedom, p = %.3g ≥ %g",
-				a.FTestF, q.Dof, a.FTestP, OCSignificance)
+			a.PreferredBy = fmt.Sprintf("F-test on the quadratic term: F = %.4g with (1, %d) degrees of freedom, %s, not below the %g level",
+				a.FTestF, q.Dof, ocPText(a.FTestP), OCSignificance)
 		}
 	} else {
 		a.PreferredBy = "too few timings for a quadratic fit: want at least 4 on 3 distinct cycles"
@@ -213,4 +213,13 @@ func (a OCAnalysis) Points() []Point {
 		p[i] = Point{T: r.Time, Mag: r.OCDays, Err: r.SigmaDays}
 	}
 	return p
+}
+
+// ocPText writes a p-value for people: three digits, or "p < 1e-12" below
+// the level where a double-precision tail probability means anything.
+func ocPText(p float64) string {
+	if p < 1e-12 {
+		return "p < 1e-12"
+	}
+	return fmt.Sprintf("p = %.3g", p)
 }

@@ -56,6 +56,28 @@ func (f *flags) required(name, arg, usage string) *string {
 	return f.value(name, arg, "", usage, "required")
 }
 
+// repeated declares a flag that may be given several times, as --comp is;
+// the values are kept in the order given. note says whether it is required
+// (checked by the command: get only reads single values).
+func (f *flags) repeated(name, arg, usage, note string) *[]string {
+	f.specs = append(f.specs, &flagSpec{name: name, arg: arg, usage: usage, note: note})
+	var vs stringList
+	f.fs.Var(&vs, name, usage)
+	return (*[]string)(&vs)
+}
+
+// stringList is the flag.Value of a repeated flag: each use appends.
+type stringList []string
+
+func (l *stringList) String() string {
+	if l == nil {
+		return ""
+	}
+	return strings.Join(*l, " ")
+}
+
+func (l *stringList) Set(s string) error { *l = append(*l, s); return nil }
+
 // toggle declares a switch, false unless given.
 func (f *flags) toggle(name, usage string) *bool {
 	f.specs = append(f.specs, &flagSpec{name: name, usage: usage})

@@ -3,8 +3,12 @@
 // demo site. With a subcommand it answers on the command line, as fixed by the
 // command-line contract (flags, JSON fields, exit status):
 //
-//	vigil sky    --lat DEG --lon DEG [--elev M] --ra H --dec DEG [--at INSTANT] [--json]
-//	vigil night  --lat DEG --lon DEG [--elev M] [--date YYYY-MM-DD] [--json]
+//	vigil sky       where a star stands at one instant
+//	vigil night     the dark hours at a site
+//	vigil reduce    differential photometry to calibrated magnitudes
+//	vigil extremum  the time of one maximum or minimum
+//	vigil oc        O−C against an ephemeris, and what it says about the period
+//	vigil distance  the period–luminosity distance of a Cepheid
 //	vigil help [COMMAND]
 //
 // Every subcommand takes --help. Bad input exits with status 2 and one line on
@@ -48,6 +52,10 @@ type command struct {
 var commands = []command{
 	skyCommand,
 	nightCommand,
+	reduceCommand,
+	extremumCommand,
+	ocCommand,
+	distanceCommand,
 }
 
 // clock tells the time; tests replace it to pin "now" and "tonight".

@@ -16,6 +16,7 @@ import (
 // whole text before writing, so an error leaves w untouched.
 func writeJSON(w io.Writer, v any) error {
 	enc := json.NewEncoder(w)
+	enc.SetEscapeHTML(false) // texts such as "p < 0.01" stay readable
 	enc.SetIndent("", "  ")
 	if err := enc.Encode(v); err != nil {
 		return fmt.Errorf("encoding the answer as JSON: %w", err)
