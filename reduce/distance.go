@@ -132,7 +132,7 @@ func IntensityMean(mags []float64) (float64, error) {
 	s := 0.0
 	for i, m := range mags {
 		if math.IsNaN(m) || math.IsInf(m, 0) {
-			return math.NaN(), &TimingInputError{i, "mag", m, "a finite magnitude"}
+			return math.NaN(), &PointError{i, "mag", m, "a finite magnitude"}
 		}
 		s += math.Pow(10, -0.4*m)
 	}
@@ -154,9 +154,9 @@ func IntensityMeanPhased(phase, mags []float64) (float64, error) {
 	for i := range phase {
 		switch {
 		case math.IsNaN(phase[i]) || math.IsInf(phase[i], 0):
-			return math.NaN(), &TimingInputError{i, "phase", phase[i], "a finite phase"}
+			return math.NaN(), &PointError{i, "phase", phase[i], "a finite phase"}
 		case math.IsInf(mags[i], 0):
-			return math.NaN(), &TimingInputError{i, "mag", mags[i], "a finite magnitude"}
+			return math.NaN(), &PointError{i, "mag", mags[i], "a finite magnitude"}
 		case math.IsNaN(mags[i]):
 			continue
 		}

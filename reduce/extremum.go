@@ -60,17 +60,17 @@ var ErrOneSided = errors.New("data do not cover both sides of the extremum")
 // fit has no turning point of that kind inside the window.
 var ErrNoExtremum = errors.New("no extremum of the requested kind in the data")
 
-// TimingInputError reports one unusable input point: Index is its position
+// PointError reports one unusable input point: Index is its position
 // in the slice given (from 0), so that a caller reading a file can name the
 // line; Field is "time", "mag" or "err".
-type TimingInputError struct {
+type PointError struct {
 	Index int
 	Field string
 	Value float64
 	Want  string
 }
 
-func (e *TimingInputError) Error() string {
+func (e *PointError) Error() string {
 	return fmt.Sprintf("reduce: point %d: %s %s: want %s", e.Index, e.Field, timingNum(e.Value), e.Want)
 }
 
@@ -182,7 +182,7 @@ func (c *PolyCurve) At(t float64) float64 {
 //
 // Errors wrap ErrOneSided when the data do not cover both sides of the
 // extremum, ErrNoExtremum when they show none; bad points give a
-// *TimingInputError.
+// *PointError.
 func Extremum(pts []Point, opt ExtremumOptions) (Timing, error) {
 	if opt.Kind == "" {
 		opt.Kind = Maximum
@@ -245,11 +245,11 @@ func extremumClean(pts []Point, kind ExtremumKind) (*extremumCurve, error) {
 	for i, p := range pts {
 		switch {
 		case math.IsNaN(p.T) || math.IsInf(p.T, 0):
-			return nil, &TimingInputError{i, "time", p.T, "a finite Julian date"}
+			return nil, &PointError{i, "time", p.T, "a finite Julian date"}
 		case math.IsInf(p.Mag, 0):
-			return nil, &TimingInputError{i, "mag", p.Mag, "a finite magnitude (or empty for missing)"}
+			return nil, &PointError{i, "mag", p.Mag, "a finite magnitude (or empty for missing)"}
 		case p.Err < 0 || math.IsInf(p.Err, 0):
-			return nil, &TimingInputError{i, "err", p.Err, "a positive error in magnitudes (or empty for unknown)"}
+			return nil, &PointError{i, "err", p.Err, "a positive error in magnitudes (or empty for unknown)"}
 		case math.IsNaN(p.Mag):
 			continue
 		}

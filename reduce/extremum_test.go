@@ -314,9 +314,9 @@ func TestExtremumBadInput(t *testing.T) {
 	for _, tc := range inputCases {
 		t.Run(tc.name, func(t *testing.T) {
 			_, err := Extremum(tc.pts, ExtremumOptions{Kind: Minimum})
-			var ie *TimingInputError
+			var ie *PointError
 			if !errors.As(err, &ie) || ie.Index != tc.index || ie.Field != tc.field {
-				t.Errorf("err = %v, want a *TimingInputError at point %d, field %s", err, tc.index, tc.field)
+				t.Errorf("err = %v, want a *PointError at point %d, field %s", err, tc.index, tc.field)
 			}
 		})
 	}

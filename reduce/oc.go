@@ -98,9 +98,9 @@ func OC(eph ephem.Ephemeris, timings []Timing, opt OCOptions) (OCAnalysis, error
 	for i, tm := range timings {
 		switch {
 		case math.IsNaN(tm.Time) || math.IsInf(tm.Time, 0) || tm.Time < 1e6 || tm.Time > 1e7:
-			return OCAnalysis{}, &TimingInputError{i, "time", tm.Time, "a full Julian date such as 2460000.1234"}
+			return OCAnalysis{}, &PointError{i, "time", tm.Time, "a full Julian date such as 2460000.1234"}
 		case tm.Sigma < 0 || math.IsInf(tm.Sigma, 0):
-			return OCAnalysis{}, &TimingInputError{i, "sigma", tm.Sigma, "a positive uncertainty in days (or empty for unknown)"}
+			return OCAnalysis{}, &PointError{i, "sigma", tm.Sigma, "a positive uncertainty in days (or empty for unknown)"}
 		}
 		if !(tm.Sigma > 0) {
 			a.Weighted = false

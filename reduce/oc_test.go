@@ -204,9 +204,9 @@ func TestOCBadInput(t *testing.T) {
 			if err == nil || !strings.Contains(err.Error(), tc.wantText) {
 				t.Fatalf("err = %v, want one mentioning %q", err, tc.wantText)
 			}
-			var ie *TimingInputError
+			var ie *PointError
 			if tc.index >= 0 && (!errors.As(err, &ie) || ie.Index != tc.index) {
-				t.Errorf("err = %v, want a *TimingInputError at %d", err, tc.index)
+				t.Errorf("err = %v, want a *PointError at %d", err, tc.index)
 			}
 		})
 	}

@@ -14,8 +14,8 @@ const (
 	// DefaultPDMBins is the number of phase bins Periodogram uses for PDM
 	// by default (Stellingwerf 1978 used 5 or 10).
 	DefaultPDMBins = 10
-	// maxPDMCovers caps the covers (Stellingwerf 1978 used 2).
-	maxPDMCovers = 10
+	// MaxPDMCovers caps the covers (Stellingwerf 1978 used 2).
+	MaxPDMCovers = 10
 	// pdmChunk is how many trial frequencies a worker takes at a time:
 	// the unit of progress reports and cancellation.
 	pdmChunk = 1024
@@ -90,8 +90,8 @@ func (d *periodData) checkPDMBins(bins, covers int) error {
 	if bins < 2 || bins >= len(d.dt) {
 		return fmt.Errorf("PDM bins %d: want 2 to %d (fewer than the %d points)", bins, len(d.dt)-1, len(d.dt))
 	}
-	if covers < 1 || covers > maxPDMCovers {
-		return fmt.Errorf("PDM covers %d: want 1 to %d", covers, maxPDMCovers)
+	if covers < 1 || covers > MaxPDMCovers {
+		return fmt.Errorf("PDM covers %d: want 1 to %d", covers, MaxPDMCovers)
 	}
 	return nil
 }

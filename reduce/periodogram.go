@@ -70,6 +70,8 @@ type PeriodResult struct {
 	// FAP is the false-alarm probability of Best by Baluev (2008) for ls;
 	// NaN for pdm.
 	FAP float64
+	// SpanDays is the time span T of the data: 1/T is the width of a peak.
+	SpanDays float64
 }
 
 // FreqGrid is an evenly spaced grid of trial frequencies in cycles per
@@ -194,7 +196,7 @@ func Periodogram(ctx context.Context, pts []Point, s PeriodSearch) (PeriodResult
 	if err != nil {
 		return PeriodResult{}, err
 	}
-	res := PeriodResult{Method: method, Grid: g, Freqs: g.Freqs(), FAP: math.NaN()}
+	res := PeriodResult{Method: method, Grid: g, Freqs: g.Freqs(), FAP: math.NaN(), SpanDays: d.span}
 	sep := 1 / d.span // distinct peaks lie at least one peak width apart
 	switch method {
 	case MethodLS:
@@ -370,11 +372,11 @@ func newPeriodData(pts []Point) (*periodData, error) {
 	for i, p := range pts {
 		switch {
 		case math.IsNaN(p.T) || math.IsInf(p.T, 0):
-			return nil, fmt.Errorf("point %d: time %v is not a finite Julian date", i, p.T)
+			return nil, &PointError{Index: i, Field: "time", Value: p.T, Want: "a finite Julian date"}
 		case math.IsNaN(p.Mag) || math.IsInf(p.Mag, 0):
-			return nil, fmt.Errorf("point %d: magnitude %v is not finite: drop points without a magnitude first", i, p.Mag)
+			return nil, &PointError{Index: i, Field: "mag", Value: p.Mag, Want: "a finite magnitude (drop points without one first)"}
 		case p.Err < 0 || math.IsInf(p.Err, 0):
-			return nil, fmt.Errorf("point %d: error %v: want a finite error > 0 (0 or NaN for unknown)", i, p.Err)
+			return nil, &PointError{Index: i, Field: "err", Value: p.Err, Want: "a finite error > 0 (0 or empty for unknown)"}
 		case !(p.Err > 0):
 			weighted = false // unknown: equal weights for all (package convention)
 		}

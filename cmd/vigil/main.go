@@ -6,6 +6,7 @@
 //	vigil sky       where a star stands at one instant
 //	vigil night     the dark hours at a site
 //	vigil reduce    differential photometry to calibrated magnitudes
+//	vigil period    period search by Lomb–Scargle or phase dispersion
 //	vigil extremum  the time of one maximum or minimum
 //	vigil oc        O−C against an ephemeris, and what it says about the period
 //	vigil distance  the period–luminosity distance of a Cepheid
@@ -53,6 +54,7 @@ var commands = []command{
 	skyCommand,
 	nightCommand,
 	reduceCommand,
+	periodCommand,
 	extremumCommand,
 	ocCommand,
 	distanceCommand,

@@ -46,11 +46,11 @@ func inputError(path string, err error) error {
 }
 
 // pointError places an error of the engine about one input point (a
-// *reduce.TimingInputError, whose Index counts the points given, one per data
+// *reduce.PointError, whose Index counts the points given, one per data
 // row of t) at the file's line and column; column maps the error's field to
 // the column that holds it. Other errors are returned unchanged.
 func pointError(t *csvtable.Table, err error, column map[string]string) error {
-	var pe *reduce.TimingInputError
+	var pe *reduce.PointError
 	if !errors.As(err, &pe) || pe.Index < 0 || pe.Index >= t.Len() {
 		return err
 	}
