@@ -489,4 +489,3 @@ func FuzzPeriod(f *testing.F) {
 		checkOutcome(t, args, vigil(args...))
 	})
 }
-
