@@ -164,3 +164,83 @@ func BenchmarkSeenAt(b *testing.B) {
 		}
 	})
 }
+
+// BenchmarkSkySpan measures the planner's sky: building it for spans of
+// several lengths, and its fast answers for one star at one instant.
+func BenchmarkSkySpan(b *testing.B) {
+	for _, days := range []float64{1, 7, 31} {
+		b.Run(fmt.Sprintf("New/days=%g", days), func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				sp, err := NewSkySpan(benchSite, benchInstant, benchInstant.AddDays(days))
+				if err != nil {
+					b.Fatal(err)
+				}
+				benchSink = sp.moon0
+			}
+		})
+	}
+	sp, err := NewSkySpan(benchSite, benchInstant, benchInstant.AddDays(31))
+	if err != nil {
+		b.Fatal(err)
+	}
+	v := benchStar.Vec()
+	at := benchInstant.AddDays(3.3)
+	bjd := NewSky(benchSite, at).BJDTDB(&v)
+	b.Run("Sky+Star", func(b *testing.B) {
+		b.ReportAllocs()
+		for b.Loop() {
+			s := sp.Sky(at)
+			benchSink = s.Star(&v).AltDeg
+		}
+	})
+	b.Run("Star", func(b *testing.B) {
+		b.ReportAllocs()
+		for b.Loop() {
+			benchSink = sp.Star(&v, at).AltDeg
+		}
+	})
+	b.Run("Circumstances", func(b *testing.B) {
+		b.ReportAllocs()
+		for b.Loop() {
+			benchSink = sp.Circumstances(&v, at).MoonSepDeg
+		}
+	})
+	b.Run("SunAltDeg", func(b *testing.B) {
+		b.ReportAllocs()
+		for b.Loop() {
+			benchSink = sp.SunAltDeg(at)
+		}
+	})
+	b.Run("SeenAt", func(b *testing.B) {
+		b.ReportAllocs()
+		for b.Loop() {
+			t, err := sp.SeenAt(BJDTDB, bjd, &v)
+			if err != nil {
+				b.Fatal(err)
+			}
+			benchTimeSink = t
+		}
+	})
+	b.Run("SunBelow", func(b *testing.B) {
+		b.ReportAllocs()
+		for b.Loop() {
+			benchSink = float64(len(sp.SunBelow(NauticalAltDeg)))
+		}
+	})
+}
+
+// BenchmarkDiurnalCircle measures the closed forms of a star's daily path.
+func BenchmarkDiurnalCircle(b *testing.B) {
+	c := NewDiurnalCircle(50, 20)
+	b.Run("AltAz", func(b *testing.B) {
+		for b.Loop() {
+			benchSink, _ = c.AltAz(2.5)
+		}
+	})
+	b.Run("HourAngleAt", func(b *testing.B) {
+		for b.Loop() {
+			benchSink, _ = c.HourAngleAt(20)
+		}
+	})
+}

@@ -36,6 +36,17 @@
 // illuminated fraction to 0.001. The figures achieved are stated in the tests
 // and in the README.
 //
+// # Many stars, many instants
+//
+// Frame and Frames share the work that depends only on the instant. A
+// SkySpan goes further for a planner: it prepares the sky over a span of
+// days at one site and answers per star and instant without computing
+// precession, nutation, the Sun or the Moon again (Star, Circumstances,
+// SeenAt, SunBelow, SunCrossings). Its answers agree with the exact path (Frame.Sky) to
+// rounding, except the Moon, interpolated from hourly samples to 0.2″; see
+// SkySpan for each figure. DiurnalCircle gives the closed forms of a star's
+// daily path (Meeus 1998, eq. 13.5, 13.6 and 15.1).
+//
 // # Methods and references
 //
 //   - J. Meeus, Astronomical Algorithms, 2nd ed., Willmann-Bell 1998: Julian day

@@ -192,3 +192,46 @@ func Example() {
 	// 23:20   31.3°  airmass 1.92
 	// 02:20   19.9°  airmass 2.90
 }
+
+// A planner's week at 50° N, 10° E from 2024 December 21, noon UTC: when
+// the maximum of δ Cephei of cycle 4583 (HJD 2460669.3858, methods.md §6) is
+// seen (astropy 5.2.1: 21:14:31.55 UTC, as in ExampleSeenAt), and when the
+// first astronomical darkness of the span begins (astropy 5.2.1: 17:20:04
+// UTC, as in ExampleNightOf).
+func ExampleSkySpan() {
+	site, _ := ephem.NewSite("50N 10E", 50, 10, 0)
+	from, _ := ephem.ParseInstant("2024-12-21T12:00:00Z")
+	span, err := ephem.NewSkySpan(site, from, from.AddDays(7))
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	star := ephem.Star{RAHours: 22.486184728, DecDeg: 58.415198306}.Vec()
+	t, err := span.SeenAt(ephem.HJD, 2436075.445+5.366341*4583, &star)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("maximum seen at %s UTC\n", t.Time().Format("Jan 2 15:04:05"))
+	dark := span.SunBelow(ephem.AstronomicalAltDeg)
+	fmt.Printf("%d dark intervals, the first from %s UTC\n", len(dark), dark[0].From.Time().Round(time.Minute).Format("Jan 2 15:04"))
+	// Output:
+	// maximum seen at Dec 24 21:14:31 UTC
+	// 7 dark intervals, the first from Dec 21 17:20 UTC
+}
+
+// The path of Venus across the sky of Washington on 1987 April 10 (Meeus
+// 1998, Ex. 13.b): at hour angle 64.352133° it stands at h = 15.1249° and
+// A = 68.0337° from the south, 248.0337° from the north. A star of
+// declination 80° seen from 50° N is lowest at φ + δ − 90° = 40°: it never
+// sets below 20°.
+func ExampleDiurnalCircle() {
+	c := ephem.NewDiurnalCircle(38+55/60.0+17/3600.0, -(6 + 43/60.0 + 11.61/3600))
+	alt, az := c.AltAz(64.352133 / 15)
+	fmt.Printf("altitude %.4f°, azimuth %.4f°\n", alt, az)
+	_, err := ephem.NewDiurnalCircle(50, 80).HourAngleAt(20)
+	fmt.Println("δ = 80° from 50° N:", err)
+	// Output:
+	// altitude 15.1249°, azimuth 248.0337°
+	// δ = 80° from 50° N: stays above that altitude all the time (circumpolar): no rise or set
+}

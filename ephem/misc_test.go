@@ -195,7 +195,18 @@ func TestEphemerisValidate(t *testing.T) {
 		{"negative period", "must be positive", func(e *Ephemeris) { e.PeriodDays = -1 }},
 		{"NaN period", "period", func(e *Ephemeris) { e.PeriodDays = math.NaN() }},
 		{"huge Q", "quadratic", func(e *Ephemeris) { e.Q = 0.01 }},
-		{"no scale", "hjd or bjd", func(e *Ephemeris) { e.Scale = 0 }},
+		// The old bound |Q| ≤ 1e-3·P let the period reach zero 500 cycles
+		// from T0.
+		{"Q at the old bound 1e-3·P", "fall to zero at cycle -500 ", func(e *Ephemeris) { e.Q = 1.5e-3 }},
+		// T0 = 2455000, P = 1.5: P + 2QE = 0 at T* = T0 − P²/(4Q), which
+		// lies before 1620 (JD 2312752.5) only for Q < 3.954e-6 and after
+		// 2200 (JD 2524593.5) only for Q > −8.083e-6.
+		{"Q > 0 just past the limit", "zero at cycle", func(e *Ephemeris) { e.Q = 3.96e-6 }},
+		{"Q < 0 just past the limit", "zero at cycle", func(e *Ephemeris) { e.Q = -8.09e-6 }},
+		{"infinite Q", "finite", func(e *Ephemeris) { e.Q = math.Inf(1) }},
+		{"NaN Q", "quadratic term Q NaN", func(e *Ephemeris) { e.Q = math.NaN() }},
+		{"no scale", "time scale TimeScale(0): want hjd", func(e *Ephemeris) { e.Scale = 0 }},
+		{"unknown scale", "time scale TimeScale(7): want hjd", func(e *Ephemeris) { e.Scale = 7 }},
 		{"negative σT0", "epoch uncertainty", func(e *Ephemeris) { e.EpochErr = -1 }},
 		{"NaN σP", "period uncertainty", func(e *Ephemeris) { e.PeriodErr = math.NaN() }},
 	} {
@@ -208,6 +219,20 @@ func TestEphemerisValidate(t *testing.T) {
 	}
 	if err := ok.Validate(); err != nil {
 		t.Errorf("Validate() of a good ephemeris = %v", err)
+	}
+	// Accepted quadratic terms keep the period positive across 1620–2200.
+	for _, q := range []float64{3.95e-6, 1e-9, -1e-9, -8.08e-6} {
+		e := ok
+		e.Q = q
+		if err := e.Validate(); err != nil {
+			t.Errorf("Q = %v: Validate() = %v, want nil", q, err)
+			continue
+		}
+		for _, jd := range []float64{minJD, maxJD} {
+			if p := e.PeriodAt(e.Cycle(jd)); !(p > 0) {
+				t.Errorf("Q = %v: period at JD %.1f = %v, want > 0", q, jd, p)
+			}
+		}
 	}
 }
 

@@ -99,16 +99,14 @@ const sampleStep = 10.0 / 1440
 const rootTol = 6e-7
 
 // curve samples one function of time (the altitude of an object, or the sine
-// of its hour angle) over a span, with one Frame per day.
+// of its hour angle) over a span, for the search of its crossings.
 type curve struct {
-	site   Site
-	obj    Object
-	from   float64 // JD UTC
-	frames []*Frame
-	fn     func(Position) float64
-	t, y   []float64
+	fn   func(jd float64) float64 // jd: Julian date (UTC)
+	t, y []float64
 }
 
+// newCurve samples fn of the object's Position from site over [from, to],
+// with one Frame per day of the span.
 func newCurve(site Site, obj Object, from, to Time, fn func(Position) float64) (*curve, error) {
 	if err := site.Validate(); err != nil {
 		return nil, err
@@ -122,41 +120,52 @@ func newCurve(site Site, obj Object, from, to Time, fn func(Position) float64) (
 	if to.Sub(from) > 400 {
 		return nil, fmt.Errorf("ephem: search span from %s to %s is longer than 400 days", from, to)
 	}
-	c := &curve{site: site, obj: obj, from: from.jd, fn: fn}
 	days := int(math.Ceil(to.Sub(from)))
-	for d := 0; d < days; d++ {
-		c.frames = append(c.frames, NewFrame(mustJD(from.jd+float64(d)+0.5)))
+	frames := make([]*Frame, days)
+	for d := range frames {
+		frames[d] = NewFrame(mustJD(from.jd + float64(d) + 0.5))
 	}
-	n := int(math.Ceil(to.Sub(from)/sampleStep)) + 1
-	step := to.Sub(from) / float64(n-1)
+	sc := site.consts()
+	eval := func(jd float64) float64 {
+		i := max(0, min(int(jd-from.jd), len(frames)-1))
+		var s Sky
+		frames[i].fillSky(&s, site, mustJD(jd), &sc)
+		return fn(obj.Position(&s))
+	}
+	return sampleCurve(from.jd, to.jd, eval), nil
+}
+
+// sampleCurve samples fn at sampleStep or a little less over [from, to]
+// (Julian dates, UTC), both ends included.
+func sampleCurve(from, to float64, fn func(float64) float64) *curve {
+	c := &curve{fn: fn}
+	n := int(math.Ceil((to-from)/sampleStep)) + 1
+	step := (to - from) / float64(n-1)
 	c.t = make([]float64, n)
 	c.y = make([]float64, n)
 	for i := range c.t {
-		c.t[i] = from.jd + float64(i)*step
-		c.y[i] = c.eval(c.t[i])
+		c.t[i] = from + float64(i)*step
+		if i == n-1 {
+			c.t[i] = to
+		}
+		c.y[i] = fn(c.t[i])
 	}
-	return c, nil
-}
-
-func (c *curve) eval(jd float64) float64 {
-	i := int((jd - c.from))
-	if i < 0 {
-		i = 0
-	}
-	if i >= len(c.frames) {
-		i = len(c.frames) - 1
-	}
-	t := mustJD(jd)
-	return c.fn(c.obj.Position(c.frames[i].Sky(c.site, t)))
+	return c
 }
 
 // roots returns the instants where the sampled function crosses level, with
 // the direction of each crossing.
 func (c *curve) roots(level float64) []Crossing {
-	var out []Crossing
-	g := func(jd float64) float64 { return c.eval(jd) - level }
+	return c.rootsIn(level, 0, len(c.t), nil)
+}
+
+// rootsIn appends to out the crossings of level found in the sample
+// intervals [t[i], t[i+1]] with lo ≤ i < hi−1, in time order.
+func (c *curve) rootsIn(level float64, lo, hi int, out []Crossing) []Crossing {
+	g := func(jd float64) float64 { return c.fn(jd) - level }
 	n := len(c.t)
-	for i := 0; i+1 < n; i++ {
+	lo, hi = max(lo, 0), min(hi, n)
+	for i := lo; i+1 < hi; i++ {
 		a, b := c.y[i]-level, c.y[i+1]-level
 		if a == 0 && i > 0 {
 			continue // counted as the end of the previous interval
@@ -168,7 +177,7 @@ func (c *curve) roots(level float64) []Crossing {
 		}
 		// A peak or dip between samples can cross the level and come back
 		// without a sign change at the samples: look at each local extremum.
-		if i == 0 || i+1 >= n {
+		if i == 0 {
 			continue
 		}
 		p := c.y[i-1] - level

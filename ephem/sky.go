@@ -28,6 +28,11 @@ type Sky struct {
 	beta vec3    // annual aberration v⊕/c, true equator of date
 	diur vec3    // diurnal aberration v_obs/c, true equator of date
 	abh  vec3    // beta + diur in the horizon frame
+	// moon is the Moon's apparent geocentric position (km, true equator of
+	// date) when a SkySpan supplied it (hasMoon); otherwise it is computed
+	// on demand from Meeus 1998, ch. 47.
+	moon    vec3
+	hasMoon bool
 }
 
 // earthRotRate is the Earth's rotation rate (rad/s).
@@ -48,10 +53,30 @@ func NewSky(site Site, t Time) *Sky {
 // star by under 0.3″), while sidereal time, the Earth's position and the Sun
 // and Moon are computed for t itself.
 func (f *Frame) Sky(site Site, t Time) *Sky {
-	s := &Sky{f: f, t: t, site: site}
-	s.last = math.Mod(f.gast(t)+site.LonDeg*deg2rad+4*math.Pi, 2*math.Pi)
-	phi := site.LatDeg * deg2rad
-	sp, cp := math.Sincos(phi)
+	s := &Sky{}
+	sc := site.consts()
+	f.fillSky(s, site, t, &sc)
+	return s
+}
+
+// siteConsts holds what the view needs of a site's latitude and elevation.
+type siteConsts struct {
+	sinLat, cosLat float64
+	rhoSin, rhoCos float64 // ρ sin φ′, ρ cos φ′ (Meeus 1998, ch. 11)
+}
+
+func (site Site) consts() siteConsts {
+	var c siteConsts
+	c.sinLat, c.cosLat = math.Sincos(site.LatDeg * deg2rad)
+	c.rhoSin, c.rhoCos = site.parallaxConstants()
+	return c
+}
+
+// fillSky sets s to the view from site at instant t (see Frame.Sky).
+func (f *Frame) fillSky(s *Sky, site Site, t Time, sc *siteConsts) {
+	*s = Sky{f: f, t: t, site: site}
+	s.last = wrap2Pi(f.gast(t) + site.LonDeg*deg2rad)
+	sp, cp := sc.sinLat, sc.cosLat
 	sl, cl := math.Sincos(s.last)
 	// Equatorial (true of date) → (north, east, up): rotate by the local
 	// sidereal time about the pole, then tilt by the latitude (Meeus eq. 13.5
@@ -62,14 +87,13 @@ func (f *Frame) Sky(site Site, t Time) *Sky {
 		{cp * cl, cp * sl, sp},
 	}
 	s.full = s.hz.mulm(&f.np)
-	rs, rc := site.parallaxConstants()
+	rs, rc := sc.rhoSin, sc.rhoCos
 	s.obs = vec3{rc * cl * earthRadiusKM, rc * sl * earthRadiusKM, rs * earthRadiusKM}
 	v := f.bary[1].add(f.bary[2].scale(t.jd - f.t.jd)) // AU/day, J2000
 	s.beta = f.np.mul(v.scale(1 / lightDayAU))
 	w := earthRotRate * rc * earthRadiusKM / cKMs
 	s.diur = vec3{-w * sl, w * cl, 0}
 	s.abh = s.hz.mul(s.beta.add(s.diur))
-	return s
 }
 
 // Time returns the instant of the view.
@@ -84,15 +108,27 @@ func (s *Sky) LocalSiderealHours() float64 { return s.last * rad2deg / 15 }
 // position turns an apparent direction w (true equator of date, any length)
 // into a Position.
 func (s *Sky) position(w vec3) Position {
-	n := s.hz.mul(w)
+	// hz rows: (−sin φ cos θ, −sin φ sin θ, cos φ), (−sin θ, cos θ, 0), ...
+	return horizontal(w, s.last, -s.hz[1][0], s.hz[1][1], s.hz[2][2], s.hz[0][2])
+}
+
+// horizontal returns the Position of the apparent direction w (true equator
+// of date, any length) for the local sidereal time last (rad, with its sine
+// sl and cosine cl) at the latitude of sine sp and cosine cp: Meeus 1998,
+// eq. 13.5 and 13.6 in vector form, azimuth from north.
+func horizontal(w vec3, last, sl, cl, sp, cp float64) Position {
+	x := cl*w[0] + sl*w[1] // toward the meridian, in the equator
+	north := -sp*x + cp*w[2]
+	east := -sl*w[0] + cl*w[1]
+	up := cp*x + sp*w[2]
 	r := w.norm()
-	alt := math.Asin(clamp1(n[2] / r))
-	az := math.Atan2(n[1], n[0])
+	alt := math.Asin(clamp1(up / r))
+	az := math.Atan2(east, north)
 	if az < 0 {
 		az += 2 * math.Pi
 	}
 	ra, dec := vecToSph(w)
-	ha := math.Mod(s.last-ra+3*math.Pi, 2*math.Pi) - math.Pi
+	ha := wrap2Pi(last-ra+math.Pi) - math.Pi
 	return Position{
 		AltDeg:     alt * rad2deg,
 		AzDeg:      az * rad2deg,
@@ -102,7 +138,17 @@ func (s *Sky) position(w vec3) Position {
 	}
 }
 
-func clamp1(x float64) float64 { return math.Max(-1, math.Min(1, x)) }
+// clamp1 returns x limited to [-1, 1] (NaN stays NaN), for asin and acos
+// of values that rounding may push a hair beyond.
+func clamp1(x float64) float64 {
+	switch {
+	case x > 1:
+		return 1
+	case x < -1:
+		return -1
+	}
+	return x
+}
 
 // apparent returns the apparent direction (true equator of date, unit) of a
 // star: proper motion to the instant, precession and nutation, then annual
@@ -128,6 +174,20 @@ func (s *Sky) StarAltDeg(v *StarVec) float64 {
 	return math.Asin(clamp1(n[2]/n.norm())) * rad2deg
 }
 
+// SunAltDeg returns only the Sun's airless topocentric altitude: Sun().AltDeg
+// without the right ascension and declination, for twilight searches.
+func (s *Sky) SunAltDeg() float64 {
+	w, _ := s.sunTopo()
+	return s.altDeg(w)
+}
+
+// altDeg returns the airless altitude of an apparent direction w (true
+// equator of date, any length), as position does.
+func (s *Sky) altDeg(w vec3) float64 {
+	up := s.hz[2][0]*w[0] + s.hz[2][1]*w[1] + s.hz[2][2]*w[2]
+	return math.Asin(clamp1(up/w.norm())) * rad2deg
+}
+
 // sunTopo returns the Sun's apparent topocentric direction (true equator of
 // date) and its geocentric distance (AU). The geometric direction comes from
 // the Earth's heliocentric position; aberration by the Earth's velocity then
@@ -148,6 +208,9 @@ func (s *Sky) Sun() Position {
 // moonGeo returns the Moon's apparent geocentric position (km, true equator
 // and equinox of date): Meeus 1998, ch. 47, with nutation in longitude added.
 func (s *Sky) moonGeo() vec3 {
+	if s.hasMoon {
+		return s.moon
+	}
 	return moonGeocentric(s.t.JDTT(), s.f.dpsi, s.f.eps)
 }
 

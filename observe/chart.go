@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"time"
+
+	"vigil/ephem"
 )
 
 // Chart holds what an altitude chart of one night shows, as plain values
@@ -66,28 +68,29 @@ func (p *Planner) Chart(targets []Target, date time.Time) (Chart, error) {
 	}
 	ch := Chart{Site: p.site.Name, Location: p.site.Location(), Date: plan.Date,
 		From: mustTime(from).Time(), To: mustTime(to).Time(), MinAltDeg: p.site.MinAltDeg,
-		SunAltDeg: p.c.SunAltDeg, Twilights: tw, MoonIllum: tb.moonIllum((from + to) / 2)}
+		SunAltDeg: p.c.SunAltDeg, Twilights: tw}
+	mid := tb.sky((from + to) / 2)
+	ch.MoonIllum = mid.MoonIllumination()
 	step := ChartStep.Hours() / 24
 	n := int(math.Ceil((to-from)/step)) + 1
 	times := make([]time.Time, n)
-	jds := make([]float64, n)
+	skies := make([]ephem.Sky, n)
 	for i := range times {
-		jds[i] = math.Min(from+float64(i)*step, to)
-		times[i] = mustTime(jds[i]).Time()
+		skies[i] = tb.sky(math.Min(from+float64(i)*step, to))
+		times[i] = skies[i].Time().Time()
 	}
-	curve := func(name string, dir func(jd float64) vec) Curve {
+	curve := func(name string, alt func(s *ephem.Sky) float64) Curve {
 		cv := Curve{Name: name, Times: times, AltDeg: make([]float64, n)}
-		for i, jd := range jds {
-			_, sl, cl := tb.zenith(jd)
-			cv.AltDeg[i], _ = tb.altAz(dir(jd), sl, cl)
+		for i := range skies {
+			cv.AltDeg[i] = alt(&skies[i])
 		}
 		return cv
 	}
-	ch.Sun = curve("Sun", tb.sunVec)
-	ch.Moon = curve("Moon", tb.moonVec)
+	ch.Sun = curve("Sun", (*ephem.Sky).SunAltDeg)
+	ch.Moon = curve("Moon", func(s *ephem.Sky) float64 { return s.Moon().AltDeg })
 	for i := range targets {
-		tr := tb.newTrack(&targets[i], i)
-		ch.Stars = append(ch.Stars, curve(targets[i].Name, func(jd float64) vec { return tb.apparent(tr, jd) }))
+		v := targets[i].Star.Vec()
+		ch.Stars = append(ch.Stars, curve(targets[i].Name, func(s *ephem.Sky) float64 { return s.StarAltDeg(&v) }))
 	}
 	for _, e := range plan.Events {
 		if e.Window.End.JDUTC() > from && e.Window.Start.JDUTC() < to {

@@ -20,9 +20,10 @@
 // instant lies in [from, to) (an event exactly at from is in, one exactly at
 // to is out), with E + 0.5 for secondary minima when asked. The UTC instant
 // at which an extremum is seen is the root of T(E) = HJD(t) or BJD_TDB(t)
-// (Eastman, Siverd & Gaudi 2010), solved as ephem.Frame.SeenAt does; it
-// agrees with astropy to 0.04 s over 1985–2041 (testdata/predict). The
-// prediction's own uncertainty is sqrt(σT0² + (E·σP)²) (ephem.Ephemeris.Sigma).
+// (Eastman, Siverd & Gaudi 2010), solved by ephem.SkySpan.SeenAt (within a
+// millisecond of ephem.SeenAt); it agrees with astropy to 0.04 s over
+// 1985–2041 (testdata/predict). The prediction's own uncertainty is
+// sqrt(σT0² + (E·σP)²) (ephem.Ephemeris.Sigma).
 //
 // # Verdicts
 //
@@ -55,15 +56,18 @@
 // # Speed
 //
 // A forecast computes once what depends only on the site and the instant —
-// ephem Frames (one per UTC day), the local sidereal time, the Earth's
-// position for the light time, the Sun's and the Moon's apparent directions
-// sampled through the span, and the spans in which the Sun is below the
-// limit — and shares it across the targets, which are spread over
-// goroutines. Per target, the altitude is a sinusoid in hour angle,
-// sin h = sin φ sin δ + cos φ cos δ cos H (Meeus 1998, eq. 13.6), so the
-// spans above the lowest altitude are analytic (Meeus eq. 15.1); only a
-// horizon profile is sampled, once per target, in hour angle.
-// BenchmarkForecast10k measures 10,000 targets over 30 nights.
+// an ephem.SkySpan over the span (one ephem Frame per day, the Moon sampled
+// hourly, the Sun's altitude sampled for its crossings) and the spans in
+// which the Sun is below the limit — and shares it across the targets, which
+// are spread over goroutines. Per extremum, ephem gives the instant it is
+// seen (SkySpan.SeenAt) and, for those with some darkness in their window,
+// where the star, the Sun and the Moon stand (SkySpan.Circumstances). The
+// star's altitude is a sinusoid in hour angle (Meeus 1998, eq. 13.6), so the
+// spans above the lowest altitude follow in closed form from its apparent
+// place, computed at anchors at most 32 days apart and interpolated
+// (ephem.DiurnalCircle, Meeus eq. 15.1); only a horizon profile is sampled,
+// once per target, in hour angle. BenchmarkForecast10k measures 10,000
+// targets over 30 nights.
 //
 // # File formats
 //
@@ -74,9 +78,11 @@
 //
 // # References
 //
-//   - J. Meeus, Astronomical Algorithms, 2nd ed., Willmann-Bell 1998: ch. 11
-//     (parallax constants), ch. 12 (sidereal time), ch. 13 (horizontal
-//     coordinates), ch. 15 (rising and setting, eq. 15.1).
+//   - J. Meeus, Astronomical Algorithms, 2nd ed., Willmann-Bell 1998: ch. 12
+//     (sidereal time), ch. 13 (horizontal coordinates), ch. 15 (rising and
+//     setting, eq. 15.1), through ephem.
+//   - D. Dowell, P. Jarratt (1971), BIT 11, 168: the Illinois method, for
+//     the crossings of a horizon profile.
 //   - J. D. Eastman, R. Siverd, B. S. Gaudi (2010), PASP 122, 935: HJD and
 //     BJD_TDB.
 //   - C. Sterken (2005), ASP Conf. Ser. 335, 3: the ephemeris T0 + P·E + Q·E².

@@ -8,16 +8,17 @@ import (
 	"vigil/ephem"
 )
 
-// Tolerances of the fast tables against ephem's full computation at the
-// instant (ephem is itself checked against astropy in its own tests).
+// Tolerances of the planner (ephem.SkySpan) against ephem's full
+// computation at the instant, with a frame of its own (ephem is itself
+// checked against astropy in its own tests).
 const (
-	seenVsEphemSec    = 0.005 // light-time geometry read back from ephem
-	altVsEphemArcsec  = 2.0   // star interpolated between anchors
-	sunVsEphemArcsec  = 1.0   // Sun interpolated over 6 h
-	moonVsEphemDeg    = 0.02  // topocentric Moon interpolated over 1 h
-	illumVsEphem      = 0.002 // illuminated fraction interpolated over 6 h
-	twilightVsEphemSe = 2.0   // Sun crossings, seconds
-	coverageStepDays  = 30.0 / secPerDay
+	seenVsEphemSec     = 0.001 // SkySpan.SeenAt, Newton's method to 86 µs
+	altVsEphemArcsec   = 0.3   // the nearest day's frame (ephem.Frame.Sky)
+	sunVsEphemArcsec   = 0.3   // as the star
+	moonVsEphemArcsec  = 0.5   // the Moon interpolated hourly (0.2″) and the frame
+	illumVsEphem       = 1e-6  // from the interpolated Moon
+	twilightVsEphemSec = 0.5   // Sun crossings, both refined to 0.05 s
+	coverageStepDays   = 30.0 / secPerDay
 )
 
 func engineCases(t *testing.T) []struct {
@@ -79,11 +80,14 @@ func TestEngineAgainstEphem(t *testing.T) {
 				if d := (e.SunAltDeg - sky.Sun().AltDeg) * 3600; math.Abs(d) > sunVsEphemArcsec {
 					t.Errorf("cycle %v: Sun alt diff %.2f\" tol %v\"", e.Cycle, d, sunVsEphemArcsec)
 				}
-				if d := e.MoonAltDeg - sky.Moon().AltDeg; math.Abs(d) > moonVsEphemDeg {
-					t.Errorf("cycle %v: Moon alt got %.4f want %.4f diff %.4f° tol %v°", e.Cycle, e.MoonAltDeg, sky.Moon().AltDeg, d, moonVsEphemDeg)
+				if d := (e.MoonAltDeg - sky.Moon().AltDeg) * 3600; math.Abs(d) > moonVsEphemArcsec {
+					t.Errorf("cycle %v: Moon alt got %.6f want %.6f diff %.3f\" tol %v\"", e.Cycle, e.MoonAltDeg, sky.Moon().AltDeg, d, moonVsEphemArcsec)
 				}
-				if d := e.MoonSepDeg - sky.MoonSeparationDeg(&v); math.Abs(d) > moonVsEphemDeg {
-					t.Errorf("cycle %v: Moon separation diff %.4f° tol %v°", e.Cycle, d, moonVsEphemDeg)
+				if d := (e.MoonSepDeg - sky.MoonSeparationDeg(&v)) * 3600; math.Abs(d) > moonVsEphemArcsec {
+					t.Errorf("cycle %v: Moon separation diff %.3f\" tol %v\"", e.Cycle, d, moonVsEphemArcsec)
+				}
+				if d := (e.SunSepDeg - sky.SunSeparationDeg(&v)) * 3600; math.Abs(d) > sunVsEphemArcsec {
+					t.Errorf("cycle %v: Sun separation diff %.3f\" tol %v\"", e.Cycle, d, sunVsEphemArcsec)
 				}
 				if d := e.MoonIllum - sky.MoonIllumination(); math.Abs(d) > illumVsEphem {
 					t.Errorf("cycle %v: Moon illumination diff %.4f tol %v", e.Cycle, d, illumVsEphem)
@@ -152,12 +156,12 @@ func TestTwilightsAgainstEphem(t *testing.T) {
 						t.Errorf("%s: happens %v, ephem.NightOf says %v", x.name, x.got.OK, x.want.OK)
 						continue
 					}
-					if d := x.got.At.Sub(x.want.At) * secPerDay; x.got.OK && math.Abs(d) > twilightVsEphemSe {
-						t.Errorf("%s: got %s want %s diff %.2f s tol %v s", x.name, x.got.At, x.want.At, d, twilightVsEphemSe)
+					if d := x.got.At.Sub(x.want.At) * secPerDay; x.got.OK && math.Abs(d) > twilightVsEphemSec {
+						t.Errorf("%s: got %s want %s diff %.2f s tol %v s", x.name, x.got.At, x.want.At, d, twilightVsEphemSec)
 					}
 				}
-				if tw.NauticalDusk.OK && (math.Abs(tw.DarkFrom.At.Sub(tw.NauticalDusk.At))*secPerDay > twilightVsEphemSe ||
-					math.Abs(tw.DarkTo.At.Sub(tw.NauticalDawn.At))*secPerDay > twilightVsEphemSe) {
+				if tw.NauticalDusk.OK && (math.Abs(tw.DarkFrom.At.Sub(tw.NauticalDusk.At))*secPerDay > twilightVsEphemSec ||
+					math.Abs(tw.DarkTo.At.Sub(tw.NauticalDawn.At))*secPerDay > twilightVsEphemSec) {
 					t.Errorf("dark span %v–%v, want the nautical twilights %v–%v for the −12° limit", tw.DarkFrom, tw.DarkTo, tw.NauticalDusk, tw.NauticalDawn)
 				}
 			})

@@ -14,8 +14,18 @@ import (
 // events Predict finds with some usable part of their window, with the same
 // numbers.
 func TestForecastMatchesPredict(t *testing.T) {
+	// Three nights of many targets, and thirty nights (whose stars' places
+	// are interpolated between anchors 30 days apart) of a few.
+	for _, c := range []struct{ targets, nights int }{{40, 3}, {8, 30}} {
+		t.Run(fmt.Sprintf("%d targets, %d nights", c.targets, c.nights), func(t *testing.T) {
+			forecastMatchesPredict(t, c.targets, c.nights)
+		})
+	}
+}
+
+func forecastMatchesPredict(t *testing.T, nTargets, nights int) {
 	site := benchSite(t)
-	targets := benchCatalogue(40)
+	targets := benchCatalogue(nTargets)
 	for i := range targets {
 		targets[i].Name = "Bench " + string(rune('A'+i%26)) + string(rune('a'+i/26))
 	}
@@ -24,7 +34,7 @@ func TestForecastMatchesPredict(t *testing.T) {
 		t.Fatal(err)
 	}
 	date := time.Date(2026, 12, 1, 0, 0, 0, 0, time.UTC)
-	plans, err := p.Forecast(targets, date, 3)
+	plans, err := p.Forecast(targets, date, nights)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -33,7 +43,7 @@ func TestForecastMatchesPredict(t *testing.T) {
 		total += len(plan.Events)
 	}
 	if total < 20 {
-		t.Fatalf("only %d events in 3 nights of 40 targets", total)
+		t.Fatalf("only %d events in %d nights of %d targets", total, nights, nTargets)
 	}
 	for n, plan := range plans {
 		if want := date.AddDate(0, 0, n); !plan.Date.Equal(want) {

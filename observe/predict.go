@@ -57,11 +57,11 @@ type Coverage struct {
 }
 
 // eventTol is the tolerance (days, about 0.09 s) below which a window
-// counts as wholly usable.
+// counts as wholly usable, and a usable part of it as none.
 const eventTol = 1e-6
 
-// event evaluates the extremum at cycle of track tr, seen at jd (UTC),
-// whose coverage window ws holds (see windowSpans).
+// event evaluates the extremum at cycle of track tr, seen at jd (UTC), whose
+// coverage window ws holds (see windowSpans).
 func (tb *skyTable) event(tr *track, c *Constraints, cycle float64, secondary bool, jd float64, ws *winSpans) Event {
 	tg := tr.tg
 	eph := &tg.Ephemeris
@@ -72,22 +72,16 @@ func (tb *skyTable) event(tr *track, c *Constraints, cycle float64, secondary bo
 		UTC: mustTime(jd),
 	}
 	e.Local = e.UTC.Time().In(tb.site.Location())
-	z, sl, cl := tb.zenith(jd)
-	u := tb.apparent(tr, jd)
-	e.AltDeg, e.AzDeg = tb.altAz(u, sl, cl)
+	cs := tb.span.Circumstances(&tr.v, e.UTC)
+	e.AltDeg, e.AzDeg = cs.StarAltDeg, cs.StarAzDeg
 	e.Airmass = math.NaN()
 	if e.AltDeg > -1 {
 		if x, ok := ephem.Airmass(ephem.RefractedAltDeg(e.AltDeg)); ok {
 			e.Airmass = x
 		}
 	}
-	sun := tb.sunVec(jd)
-	e.SunAltDeg = math.Asin(math.Max(-1, math.Min(1, sun.dot(z)))) * rad2deg
-	e.SunSepDeg = sepDeg(u, sun)
-	moon := tb.moonVec(jd)
-	e.MoonAltDeg = math.Asin(math.Max(-1, math.Min(1, moon.dot(z)))) * rad2deg
-	e.MoonSepDeg = sepDeg(u, moon)
-	e.MoonIllum = tb.moonIllum(jd)
+	e.SunAltDeg, e.SunSepDeg = cs.SunAltDeg, cs.SunSepDeg
+	e.MoonAltDeg, e.MoonSepDeg, e.MoonIllum = cs.MoonAltDeg, cs.MoonSepDeg, cs.MoonIllum
 	e.SolarWarning = e.SunAltDeg > ephem.SunriseAltDeg && e.SunSepDeg < SolarWarningSepDeg
 
 	// The verdict at the instant.
@@ -116,7 +110,9 @@ func (tb *skyTable) event(tr *track, c *Constraints, cycle float64, secondary bo
 	cv.Start, cv.End, cv.HalfWidthDays = mustTime(lo), mustTime(hi), w
 	good := ws.usable.total()
 	moonBad := tb.moonBad(tr, c, ws, jd, e.MoonSepDeg)
-	cv.UsableFraction = math.Max(0, (good-moonBad)/(2*w))
+	if free := good - moonBad; free >= eventTol { // shorter is rounding: none
+		cv.UsableFraction = free / (2 * w)
+	}
 	if moonBad > 0 {
 		cv.Reasons |= MoonTooClose
 	}
@@ -142,45 +138,63 @@ func (tb *skyTable) event(tr *track, c *Constraints, cycle float64, secondary bo
 }
 
 // moonStepCheck is the step (days, 5 minutes) at which the Moon's distance
-// is checked across a window; moonRate bounds how fast the topocentric Moon
+// is checked across a window. moonRate bounds how fast the topocentric Moon
 // moves against the stars (degrees per day: its orbital motion, at most
-// about 15.4° per day, plus the change of its diurnal parallax).
+// about 15.4° per day, plus the change of its diurnal parallax, under 6.3°),
+// and moonAltRate how fast its altitude changes (the Earth's rotation,
+// 361° per day, plus its own motion).
 const (
 	moonStepCheck = 5.0 / 1440
 	moonRate      = 24.0
+	moonAltRate   = 375.0
 )
 
 // moonBad returns the length (days) of the usable part of the window around
-// jd in which the Moon is up and closer than the limit.
+// jd in which the Moon is up and closer than the limit, checked every
+// moonStepCheck (ephem.SkySpan.Circumstances). A check whose Moon is far
+// from changing state (by moonRate and moonAltRate) stands for the checks
+// that follow it within that margin.
 func (tb *skyTable) moonBad(tr *track, c *Constraints, ws *winSpans, jd, sepAtJD float64) float64 {
 	w := math.Max(jd-ws.lo, ws.hi-jd)
-	if c.MoonMinSepDeg <= 0 || sepAtJD-moonRate*w > c.MoonMinSepDeg {
+	lim := c.MoonMinSepDeg
+	if lim <= 0 || sepAtJD-moonRate*w > lim {
 		return 0
 	}
 	bad := 0.0
 	ws.usable.each(ws.lo, ws.hi, func(a, b float64) {
 		n := int(math.Ceil((b - a) / moonStepCheck))
 		dt := (b - a) / float64(n)
-		for i := 0; i < n; i++ {
-			t := a + (float64(i)+0.5)*dt
-			z, _, _ := tb.zenith(t)
-			m := tb.moonVec(t)
-			if m.dot(z) > 0 && sepDeg(tb.apparent(tr, t), m) < c.MoonMinSepDeg {
-				bad += dt
+		for i := 0; i < n; {
+			cs := tb.span.Circumstances(&tr.v, mustTime(a+(float64(i)+0.5)*dt))
+			up, near := cs.MoonAltDeg/moonAltRate, (lim-cs.MoonSepDeg)/moonRate // days
+			isBad := up > 0 && near > 0
+			margin := math.Max(-up, -near) // days until it can turn bad
+			if isBad {
+				margin = math.Min(up, near) // days until it can turn good
 			}
+			k := min(n-i, 1+int(margin/dt*(1-1e-9)))
+			if isBad {
+				bad += float64(k) * dt
+			}
+			i += k
 		}
 	})
 	return bad
 }
 
-// cycles calls fn for every cycle (and, with secondary, half cycle) whose
-// event could be seen in [from, to), in time order.
-func cycles(tg *Target, secondary bool, from, to float64, fn func(cycle float64, sec bool)) error {
+// seenMarginDays bounds |UTC instant − ephemeris time| of any event: the
+// light time across the Earth's orbit (under 0.006 d) plus TT − UTC or ΔT
+// (under 0.002 d from 1620 on, Meeus 1998 table 10.A).
+const seenMarginDays = 0.02
+
+// cycles calls fn, in time order, for every cycle (and, with secondary,
+// half cycle) whose event could be seen in [from, to): those whose
+// ephemeris time lies within seenMarginDays of the span. It stops at the
+// first error fn returns.
+func cycles(tg *Target, secondary bool, from, to float64, fn func(cycle float64, sec bool) error) error {
 	eph := &tg.Ephemeris
-	// The light time is under 0.006 d and TT − UTC under 0.002 d: a margin
-	// of 0.02 d finds every event whose UTC instant lies in the span.
-	e0 := math.Floor(eph.Cycle(from-0.02)) - 1
-	e1 := math.Ceil(eph.Cycle(to+0.02)) + 1
+	e0 := math.Floor(eph.Cycle(from-seenMarginDays)) - 1
+	e1 := math.Ceil(eph.Cycle(to+seenMarginDays)) + 1
 	n := e1 - e0
 	if secondary {
 		n *= 2
@@ -189,16 +203,34 @@ func cycles(tg *Target, secondary bool, from, to float64, fn func(cycle float64,
 		return fmt.Errorf("observe: target %q: %.0f events from %s to %s: at most %d; shorten the span",
 			tg.Name, n, mustTime(from), mustTime(to), maxEventsPerRun)
 	}
-	if eph.PeriodAt(e0) <= 0 || eph.PeriodAt(e1) <= 0 {
-		return fmt.Errorf("observe: target %q: the quadratic ephemeris gives a period P + 2QE ≤ 0 within the span", tg.Name)
+	call := func(cyc float64, sec bool) error {
+		if T := eph.At(cyc); T < from-seenMarginDays || T >= to+seenMarginDays {
+			return nil
+		}
+		return fn(cyc, sec)
 	}
 	for e := e0; e <= e1; e++ {
 		if secondary && e > e0 {
-			fn(e-0.5, true)
+			if err := call(e-0.5, true); err != nil {
+				return err
+			}
 		}
-		fn(e, false)
+		if err := call(e, false); err != nil {
+			return err
+		}
 	}
 	return nil
+}
+
+// seen returns the Julian date (UTC) at which the extremum at ephemeris time
+// T is seen at the site (ephem.SkySpan.SeenAt, within a millisecond of
+// ephem.SeenAt).
+func (tb *skyTable) seen(tr *track, T float64) (float64, error) {
+	t, err := tb.span.SeenAt(tr.tg.Ephemeris.Scale, T, &tr.v)
+	if err != nil {
+		return 0, fmt.Errorf("observe: target %q: %w", tr.tg.Name, err)
+	}
+	return t.JDUTC(), nil
 }
 
 // Predict returns every extremum of target t whose UTC instant lies in

@@ -121,9 +121,12 @@ func (h Horizon) AltDeg(azDeg float64) float64 {
 	case 1:
 		return h[0].AltDeg
 	}
-	az := math.Mod(azDeg, 360)
-	if az < 0 {
-		az += 360
+	az := azDeg
+	if az < 0 || az >= 360 {
+		az = math.Mod(az, 360)
+		if az < 0 {
+			az += 360
+		}
 	}
 	// First point with azimuth > az (binary search on a short slice).
 	lo, hi := 0, n

@@ -1,7 +1,5 @@
 package observe
 
-import "sort"
-
 // span is a time interval [a, b) in Julian days (UTC).
 type span struct{ a, b float64 }
 
@@ -46,9 +44,25 @@ func (s spans) intersect(o spans, dst spans) spans {
 	return dst
 }
 
-// first returns the index of the first interval that ends after t.
+// first returns the index of the first interval that ends after t (a
+// binary search).
 func (s spans) first(t float64) int {
-	return sort.Search(len(s), func(i int) bool { return s[i].b > t })
+	lo, hi := 0, len(s)
+	for lo < hi {
+		m := int(uint(lo+hi) >> 1)
+		if s[m].b > t {
+			hi = m
+		} else {
+			lo = m + 1
+		}
+	}
+	return lo
+}
+
+// meets reports whether s has a part of positive length in [lo, hi).
+func (s spans) meets(lo, hi float64) bool {
+	i := s.first(lo)
+	return i < len(s) && s[i].a < hi && lo < hi
 }
 
 // measure returns the length (days) of s ∩ [lo, hi).

@@ -1,57 +1,94 @@
 package chart
 
-import "image/color"
+import (
+	"image/color"
+
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+)
 
 // Palette holds every colour a chart uses, so that a theme (the night-red
 // one, say) swaps them in one place.
 type Palette struct {
 	Background, Foreground, Grid color.Color
-	// The sky behind the curves: daylight, civil, nautical and astronomical
-	// twilight, and night.
+	KeyBackground                color.Color // behind the key
+	// The sky behind the curves, from light to dark: daylight, civil,
+	// nautical and astronomical twilight, and night. Each must be darker
+	// than the one before, so that darker reads as a darker sky.
 	Day, Civil, Nautical, Astronomical, Night color.Color
 	Moon                                      color.Color
 	MinAlt                                    color.Color // the site's lowest useful altitude
-	Window                                    color.Color // its alpha is the coverage windows' translucency
+	Window                                    color.Color // its alpha is the translucency of window marks
 	Stars                                     []color.Color
 }
 
-// DefaultPalette is for daytime screens and print: a light background and
-// distinct, colour-blind-safe line colours (Okabe & Ito 2008, "Color
-// Universal Design").
+// DefaultPalette is for daytime screens and print: a light background, the
+// sky as a ramp of neutral greys (which print as they show), and distinct,
+// colour-blind-safe line colours (Okabe & Ito 2008, "Color Universal
+// Design"), each star also with its own dash pattern (starDashes) for
+// greyscale print.
 func DefaultPalette() Palette {
+	grey := func(v uint8) color.Color { return color.Gray{Y: v} }
 	return Palette{
-		Background: color.White, Foreground: color.Black, Grid: color.Gray{Y: 215},
-		Day:          color.RGBA{R: 255, G: 251, B: 232, A: 255},
-		Civil:        color.RGBA{R: 234, G: 238, B: 247, A: 255},
-		Nautical:     color.RGBA{R: 214, G: 221, B: 238, A: 255},
-		Astronomical: color.RGBA{R: 194, G: 204, B: 229, A: 255},
-		Night:        color.RGBA{R: 176, G: 188, B: 220, A: 255},
-		Moon:         color.RGBA{R: 90, G: 90, B: 90, A: 255},
-		MinAlt:       color.RGBA{R: 180, G: 30, B: 30, A: 255},
-		Window:       color.NRGBA{R: 255, G: 255, B: 255, A: 38},
+		Background: color.White, Foreground: color.Black,
+		Grid:          color.NRGBA{A: 40}, // darkens every shade alike
+		KeyBackground: color.White,
+		Day:           grey(255), Civil: grey(243), Nautical: grey(232), Astronomical: grey(221), Night: grey(210),
+		Moon:   color.RGBA{R: 80, G: 80, B: 80, A: 255},
+		MinAlt: color.RGBA{R: 170, G: 30, B: 30, A: 255},
+		Window: color.NRGBA{A: 80},
+		// The darker colours first: most charts show a few stars.
 		Stars: []color.Color{
-			color.RGBA{R: 230, G: 159, B: 0, A: 255},
-			color.RGBA{R: 0, G: 114, B: 178, A: 255},
-			color.RGBA{R: 0, G: 158, B: 115, A: 255},
-			color.RGBA{R: 204, G: 121, B: 167, A: 255},
-			color.RGBA{R: 213, G: 94, B: 0, A: 255},
-			color.RGBA{R: 86, G: 180, B: 233, A: 255},
-			color.RGBA{R: 120, G: 94, B: 240, A: 255},
-			color.RGBA{R: 0, G: 0, B: 0, A: 255},
+			color.RGBA{R: 0, G: 114, B: 178, A: 255},   // blue
+			color.RGBA{R: 213, G: 94, B: 0, A: 255},    // vermilion
+			color.RGBA{R: 0, G: 158, B: 115, A: 255},   // bluish green
+			color.RGBA{R: 204, G: 121, B: 167, A: 255}, // reddish purple
+			color.RGBA{A: 255},                         // black
+			color.RGBA{R: 230, G: 159, B: 0, A: 255},   // orange
+			color.RGBA{R: 86, G: 180, B: 233, A: 255},  // sky blue
 		},
 	}
 }
 
-// NightRedPalette keeps dark adaptation at the telescope: dim reds on black.
+// NightRedPalette keeps dark adaptation at the telescope: deep reds on
+// black, nothing bright (no channel but red, and red at most 200 of 255).
+// The sky darkens from a deep red by day to black at night; the stars differ
+// by shade and, above all, by dash pattern.
 func NightRedPalette() Palette {
 	red := func(v uint8) color.Color { return color.RGBA{R: v, A: 255} }
 	return Palette{
-		Background: color.Black, Foreground: red(200), Grid: red(50),
-		Day: red(70), Civil: red(50), Nautical: red(34), Astronomical: red(20), Night: color.Black,
-		Moon: red(140), MinAlt: red(255), Window: color.NRGBA{R: 255, A: 50},
-		Stars: []color.Color{red(255), red(200), red(160), red(230), red(180), red(140)},
+		Background: color.Black, Foreground: red(170), Grid: color.NRGBA{R: 255, A: 28},
+		KeyBackground: color.Black,
+		Day:           red(58), Civil: red(42), Nautical: red(28), Astronomical: red(15), Night: color.Black,
+		Moon: red(120), MinAlt: red(140), Window: color.NRGBA{R: 255, A: 90},
+		Stars: []color.Color{red(200), red(150), red(185), red(135), red(170), red(160), red(140)},
 	}
 }
 
 // star returns the colour of the i-th star.
 func (p Palette) star(i int) color.Color { return p.Stars[i%len(p.Stars)] }
+
+// sky returns the shade of level i: 0 day, 1 civil, 2 nautical,
+// 3 astronomical twilight, 4 night.
+func (p Palette) sky(i int) color.Color {
+	return [...]color.Color{p.Day, p.Civil, p.Nautical, p.Astronomical, p.Night}[i]
+}
+
+// starDashes are the dash patterns (points, on and off) of the stars'
+// curves, in turn: solid, long dashes, dash-dot, short dashes, dots,
+// dash-dot-dot. With the seven colours of DefaultPalette they tell 42
+// stars in a row apart; in greyscale or night red the patterns alone tell
+// six.
+var starDashes = [][]float64{nil, {7, 3}, {7, 2.5, 1.5, 2.5}, {3, 2.5}, {1.2, 2}, {7, 2, 1.2, 2, 1.2, 2}}
+
+// starLine returns the line style of the i-th star: its colour, and a dash
+// pattern that changes with i alongside the colour (i mod len(starDashes)),
+// so that neighbours in the list differ in both.
+func (p Palette) starLine(i int) draw.LineStyle {
+	d := starDashes[i%len(starDashes)]
+	sty := draw.LineStyle{Color: p.star(i), Width: vg.Points(2)}
+	for _, v := range d {
+		sty.Dashes = append(sty.Dashes, vg.Points(v))
+	}
+	return sty
+}
