@@ -73,7 +73,7 @@ fuzz:
 # python3-astropy and python3-numpy; runs offline). The scripts sit beside
 # the tables they write, under testdata/.
 refdata:
-	@for s in $$(find testdata cmd -name '*.py' | sort); do echo "== $$s"; /usr/bin/python3 $$s || exit 1; done
+	@for s in $$(find . -path '*/testdata/*.py' -not -path './.git/*' | sort); do echo "== $$s"; /usr/bin/python3 $$s || exit 1; done
 
 # Screenshots of every panel for the README (needs Xvfb and ImageMagick).
 screenshots: build

@@ -252,7 +252,9 @@ func FormatComps(cs []Comp) string {
 }
 
 // fmtFloat writes the shortest text that reads back to the same float64.
-func fmtFloat(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+// fmtFloat writes v exactly and without an exponent, as people type
+// coordinates, epochs and periods (2459000.1234, not 2.4590001234e+06).
+func fmtFloat(v float64) string { return strconv.FormatFloat(v, 'f', -1, 64) }
 
 // optFloat writes v, or an empty cell when v equals missing (or is NaN).
 func optFloat(v, missing float64) string {

@@ -5,6 +5,7 @@ import (
 	"math"
 	"strings"
 	"time"
+	_ "time/tzdata" // named time zones work where the system has no zone database
 
 	"vigil/ephem"
 )
