@@ -5,6 +5,9 @@
 //
 //	vigil sky       where a star stands at one instant
 //	vigil night     the dark hours at a site
+//	vigil predict   the coming maxima or minima of one star, and which can be observed
+//	vigil plan      the extrema of a list of targets over one night or several, ranked
+//	vigil chart     the altitude chart of one night, as PNG, SVG or PDF
 //	vigil reduce    differential photometry to calibrated magnitudes
 //	vigil period    period search by Lomb–Scargle or phase dispersion
 //	vigil extremum  the time of one maximum or minimum
@@ -53,6 +56,9 @@ type command struct {
 var commands = []command{
 	skyCommand,
 	nightCommand,
+	predictCommand,
+	planCommand,
+	chartCommand,
 	reduceCommand,
 	periodCommand,
 	extremumCommand,
