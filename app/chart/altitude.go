@@ -17,6 +17,7 @@ import (
 	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
+	"gonum.org/v1/plot/vg/vgimg"
 
 	"vigil/ephem"
 	"vigil/internal/safefile"
@@ -517,9 +518,18 @@ func Save(p *plot.Plot, path string, w, h vg.Length) error {
 	default:
 		return fmt.Errorf("chart: %s: format %q: want .png, .svg or .pdf", path, filepath.Ext(path))
 	}
-	wt, err := p.WriterTo(w, h, ext)
-	if err != nil {
-		return fmt.Errorf("chart: %s: %w", path, err)
+	var wt io.WriterTo
+	if ext == "png" {
+		// Draw on a canvas filled with the plot's own background, so that a
+		// size that is not a whole number of pixels leaves no white seam.
+		c := vgimg.NewWith(vgimg.UseWH(w, h), vgimg.UseBackgroundColor(p.BackgroundColor))
+		p.Draw(draw.New(c))
+		wt = vgimg.PngCanvas{Canvas: c}
+	} else {
+		var err error
+		if wt, err = p.WriterTo(w, h, ext); err != nil {
+			return fmt.Errorf("chart: %s: %w", path, err)
+		}
 	}
 	return safefile.Write(path, func(out io.Writer) error {
 		_, err := wt.WriteTo(out)

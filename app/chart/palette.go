@@ -20,6 +20,18 @@ type Palette struct {
 	MinAlt                                    color.Color // the site's lowest useful altitude
 	Window                                    color.Color // its alpha is the translucency of window marks
 	Stars                                     []color.Color
+
+	// The charts of measurements (light curve, phase curve, O−C diagram,
+	// periodogram) draw their series of points in the Stars colours, in
+	// turn, and use these. A nil field falls back to a shade of
+	// Foreground (see theme.go), so a palette made before they existed
+	// still draws every chart.
+	Fits      []color.Color // fitted curves in turn: the extremum fit; O−C quadratic, linear, light-time
+	Selection color.Color   // translucent fill of a time range picked for a fit
+	Sigma     color.Color   // translucent fill of the ±σ band about a fitted time
+	Shade     color.Color   // faint fill of a repeated region (phases outside 0–1)
+	Faint     color.Color   // a secondary curve behind the data (the spectral window)
+	Flag      color.Color   // marks on doubtful points (an ambiguous cycle count)
 }
 
 // DefaultPalette is for daytime screens and print: a light background, the
@@ -47,6 +59,16 @@ func DefaultPalette() Palette {
 			color.RGBA{R: 230, G: 159, B: 0, A: 255},   // orange
 			color.RGBA{R: 86, G: 180, B: 233, A: 255},  // sky blue
 		},
+		Fits: []color.Color{
+			color.RGBA{A: 255},                         // black
+			color.RGBA{R: 204, G: 121, B: 167, A: 255}, // reddish purple
+			color.RGBA{R: 0, G: 158, B: 115, A: 255},   // bluish green
+		},
+		Selection: color.NRGBA{R: 230, G: 159, B: 0, A: 60}, // orange, a light grey in print
+		Sigma:     color.NRGBA{A: 38},
+		Shade:     color.NRGBA{A: 14},
+		Faint:     color.Gray{Y: 150},
+		Flag:      color.RGBA{R: 170, G: 30, B: 30, A: 255},
 	}
 }
 
@@ -61,7 +83,10 @@ func NightRedPalette() Palette {
 		KeyBackground: color.Black,
 		Day:           red(58), Civil: red(42), Nautical: red(28), Astronomical: red(15), Night: color.Black,
 		Moon: red(120), MinAlt: red(140), Window: color.NRGBA{R: 255, A: 90},
-		Stars: []color.Color{red(200), red(150), red(185), red(135), red(170), red(160), red(140)},
+		Stars:     []color.Color{red(200), red(150), red(185), red(135), red(170), red(160), red(140)},
+		Fits:      []color.Color{red(190), red(150), red(140)},
+		Selection: color.NRGBA{R: 255, A: 45}, Sigma: color.NRGBA{R: 255, A: 50}, Shade: color.NRGBA{R: 255, A: 16},
+		Faint: red(85), Flag: red(200),
 	}
 }
 
