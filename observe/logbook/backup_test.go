@@ -10,9 +10,11 @@ import (
 	"testing"
 )
 
-// TestBackupRestore backs up the demo, restores it into a new file and
-// backs that up: the two documents must be byte-identical, and so must
-// every table (compared row by row through the backup's own structure).
+// TestBackupRestore backs up a demo logbook (fxDemo: every table holds
+// rows), restores it into a new file and backs that up: the two documents
+// must be byte-identical, and so must every table (compared row by row
+// through the backup's own structure). The whole demo scenario goes through
+// the same round trip in vigil/internal/demo.
 func TestBackupRestore(t *testing.T) {
 	src := openT(t, sharedDemo(t))
 	var first bytes.Buffer

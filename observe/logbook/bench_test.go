@@ -129,18 +129,6 @@ func manyTargetsT(b testing.TB, n int) *Logbook {
 	return lb
 }
 
-// BenchmarkCreateDemo measures the first run: generating and writing the
-// demo logbook.
-func BenchmarkCreateDemo(b *testing.B) {
-	for i := 0; i < b.N; i++ {
-		lb, err := CreateDemo(filepath.Join(b.TempDir(), "demo.db"))
-		if err != nil {
-			b.Fatal(err)
-		}
-		lb.Close()
-	}
-}
-
 // BenchmarkImportCatalogue imports a catalogue of 10,000 targets (with
 // their comparison stars), then 20,000 older ephemerides and 20,000
 // timings for them.

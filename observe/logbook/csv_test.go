@@ -13,9 +13,10 @@ import (
 	"vigil/observe"
 )
 
-// TestCSVRoundTrip exports every table of the demo, imports them into a
-// new logbook, exports again, and wants the same bytes; and the same
-// targets, sites and measurements through the API.
+// TestCSVRoundTrip exports every table of a demo logbook (fxDemo), imports
+// them into a new logbook, exports again, and wants the same bytes; and the
+// same targets, sites and measurements through the API. The whole demo
+// scenario goes through the same round trip in vigil/internal/demo.
 func TestCSVRoundTrip(t *testing.T) {
 	src := openT(t, sharedDemo(t))
 	dir1, dir2 := t.TempDir(), t.TempDir()

@@ -2,49 +2,55 @@ package logbook
 
 import (
 	"database/sql"
-	"errors"
 	"fmt"
-	"io/fs"
-	"math"
-	"os"
 	"time"
 
 	"vigil/observe"
 )
 
-// demoSeed seeds the demo's noise: the same seed gives the same logbook.
-const demoSeed = 20190105
+// DemoRecords is a whole scenario to store as a demo logbook (CreateDemo):
+// sites, targets with their ephemeris histories, nights with their plans,
+// measurements and own timings, and timings tied to no night (published
+// ones). The logbook only stores it; the scenario itself is generated
+// elsewhere (package vigil/internal/demo).
+type DemoRecords struct {
+	Sites   []observe.Site
+	Targets []DemoTarget
+	Nights  []DemoNight
+	Timings []Timing // tied to no night; NightID must be 0
+}
 
-// The span of the demo's own observations.
-var (
-	demoFirstNight = time.Date(2019, 1, 1, 0, 0, 0, 0, time.UTC)
-	demoLastNight  = time.Date(2026, 11, 30, 0, 0, 0, 0, time.UTC)
-)
+// DemoTarget is a target of a demo scenario: the target as the catalogue
+// holds it, whose Ephemeris is the first one adopted (at Adopted, from
+// Source), the ephemerides adopted after it in order (the last is current),
+// and its intensity-mean V (NaN when it has none).
+type DemoTarget struct {
+	Target   observe.Target
+	MeanMagV float64
+	Adopted  time.Time
+	Source   string
+	Later    []AdoptedEphemeris
+}
 
-// Demo photometry: a nightly zero point near demoZeroPoint, the V-band
-// extinction coefficient (common practice: 0.15–0.25 mag per air mass,
-// methods sheet §15) and the frame-to-frame transparency jitter that every
-// star of a frame shares (and differential photometry removes).
-const (
-	demoZeroPoint   = -21.3
-	demoExtinction  = 0.22
-	demoTransparent = 0.01
-	demoSunAltDeg   = -12 // runs start after nautical dusk
-)
+// DemoNight is a night of a demo scenario with what was done in it. The
+// NightID of its measurements and timings is set when they are stored.
+type DemoNight struct {
+	Night        Night
+	Plan         []PlanItem
+	Measurements []Measurement
+	Timings      []Timing
+}
 
-// CreateDemo makes a new logbook at path holding the demo scenario (see
-// the package documentation) and opens it. It refuses to overwrite a file.
-// The scenario is generated from a fixed seed: every call gives the same
-// records.
-func CreateDemo(path string) (*Logbook, error) {
-	if err := refuseExisting(path); err != nil {
-		return nil, err
+// CreateDemo makes a new logbook at path holding the records, every site,
+// target and night flagged demo (ClearDemo removes them, and so does an
+// import), sets the logbook's demo flag (IsDemo) and opens it. Every record
+// is checked as the rest of the API checks it; on any error nothing is
+// left at path. It refuses to overwrite a file (ErrExists).
+func CreateDemo(path string, d *DemoRecords) (*Logbook, error) {
+	if d == nil {
+		d = &DemoRecords{}
 	}
-	d, err := generateDemo(demoSeed)
-	if err != nil {
-		return nil, fmt.Errorf("logbook: generating the demo: %w", err)
-	}
-	err = build(path, SchemaVersion, func(lb *Logbook) error {
+	err := build(path, SchemaVersion, func(lb *Logbook) error {
 		return lb.tx(func(tx *sql.Tx) error { return writeDemo(tx, d) })
 	})
 	if err != nil {
@@ -53,56 +59,24 @@ func CreateDemo(path string) (*Logbook, error) {
 	return Open(path)
 }
 
-// OpenOrCreateDemo opens the logbook at path, or creates it with the demo
-// scenario when there is no file there (the first run). created says which.
-func OpenOrCreateDemo(path string) (lb *Logbook, created bool, err error) {
-	if _, err := os.Stat(path); errors.Is(err, fs.ErrNotExist) {
-		lb, err := CreateDemo(path)
-		return lb, err == nil, err
-	}
-	lb, err = Open(path)
-	return lb, false, err
-}
-
-// demoData is the generated scenario, before it is written.
-type demoData struct {
-	sites     []observe.Site
-	stars     []demoStar
-	nights    []*demoNight
-	published []Timing
-}
-
-// demoNight is one night of the demo with what was done in it.
-type demoNight struct {
-	night   Night
-	plan    []PlanItem
-	meas    []Measurement
-	timings []Timing
-}
-
-// writeDemo stores the scenario in the transaction, every record marked
-// demo, and sets the logbook's demo flag.
-func writeDemo(sqlTx *sql.Tx, d *demoData) error {
+// writeDemo stores the records in the transaction, every site, target and
+// night marked demo, and sets the logbook's demo flag.
+func writeDemo(sqlTx *sql.Tx, d *DemoRecords) error {
 	tx := newStmtCache(sqlTx)
 	defer tx.close()
-	for _, s := range d.sites {
+	for _, s := range d.Sites {
 		if _, err := addSite(tx, s, true); err != nil {
-			return err
+			return fmt.Errorf("demo site %q: %w", s.Name, err)
 		}
 	}
-	for i := range d.stars {
-		s := &d.stars[i]
-		mean := math.NaN()
-		if s.meanMagV {
-			mean = roundTo(s.shape.intensityMean(4000), 3)
-		}
-		id, err := addTarget(tx, s.target(), mean, s.history[0].Source, s.history[0].Adopted, true)
+	for _, t := range d.Targets {
+		id, err := addTarget(tx, t.Target, t.MeanMagV, t.Source, t.Adopted, true)
 		if err != nil {
-			return err
+			return fmt.Errorf("demo target %q: %w", t.Target.Name, err)
 		}
-		for _, h := range s.history[1:] {
+		for _, h := range t.Later {
 			if err := insertEphemeris(tx, id, h.Ephemeris, h.Adopted, h.Source); err != nil {
-				return err
+				return fmt.Errorf("demo target %q: ephemeris adopted %s: %w", t.Target.Name, stamp(h.Adopted), err)
 			}
 		}
 	}
@@ -117,35 +91,38 @@ func writeDemo(sqlTx *sql.Tx, d *demoData) error {
 		return err
 	}
 	defer tw.ins.Close()
-	for _, n := range d.nights {
-		id, err := addNight(tx, n.night, true)
+	for _, n := range d.Nights {
+		id, err := addNight(tx, n.Night, true)
 		if err != nil {
-			return err
+			return fmt.Errorf("demo night %s at %q: %w", dateKey(n.Night.Date), n.Night.Site, err)
 		}
-		for i, p := range n.plan {
+		for i, p := range n.Plan {
 			if err := addPlanItem(tx, id, i+1, p); err != nil {
-				return err
+				return fmt.Errorf("demo night %s at %q: plan: %w", dateKey(n.Night.Date), n.Night.Site, err)
 			}
 		}
-		for i := range n.meas {
-			n.meas[i].NightID = id
-			if _, err := mw.add(&n.meas[i], 0); err != nil {
-				return fmt.Errorf("demo measurement of %s: %w", n.meas[i].Target, err)
+		for _, m := range n.Measurements {
+			m.NightID = id
+			if _, err := mw.add(&m, 0); err != nil {
+				return fmt.Errorf("demo measurement of %q at JD %v: %w", m.Target, m.JDUTC, err)
 			}
 		}
-		for i := range n.timings {
-			n.timings[i].NightID = id
-			if _, err := tw.add(&n.timings[i], 0); err != nil {
-				return err
+		for _, t := range n.Timings {
+			t.NightID = id
+			if _, err := tw.add(&t, 0); err != nil {
+				return fmt.Errorf("demo timing of %q at JD %v: %w", t.Target, t.JD, err)
 			}
 		}
 	}
 	if err := mw.flush(); err != nil {
 		return err
 	}
-	for i := range d.published {
-		if _, err := tw.add(&d.published[i], 0); err != nil {
-			return err
+	for _, t := range d.Timings {
+		if t.NightID != 0 {
+			return fmt.Errorf("demo timing of %q at JD %v: night %d: want 0 (a timing tied to a night goes with DemoNight.Timings)", t.Target, t.JD, t.NightID)
+		}
+		if _, err := tw.add(&t, 0); err != nil {
+			return fmt.Errorf("demo timing of %q at JD %v: %w", t.Target, t.JD, err)
 		}
 	}
 	_, err = tx.Exec("UPDATE meta SET value = '1' WHERE key = 'demo'")

@@ -105,43 +105,38 @@ Exemple Star,2457000.0987,hjd,0.0005,min,published,An Invented Journal 8 (2015)
 	// 3 <nil>
 }
 
-// The first run: a demo logbook of invented sites, stars and observations,
-// flagged as a demo until the user clears it or imports real data.
+// A demo logbook: records stored flagged as demo (the first run's
+// scenario comes from vigil/internal/demo), removed by ClearDemo or by any
+// import.
 func ExampleCreateDemo() {
 	dir, _ := os.MkdirTemp("", "vigil-example-")
 	defer os.RemoveAll(dir)
-	lb, err := logbook.CreateDemo(filepath.Join(dir, "vigil.db"))
+	site, _ := observe.NewSite("Hilltop (demo)", 52.1, -1.45, 140, "Europe/London", 20, nil)
+	star := observe.NewTarget("Invented V1", ephem.Star{RAHours: 0.9151, DecDeg: 24.31}, observe.Pulsating,
+		ephem.Ephemeris{Epoch: 2459001.31274, PeriodDays: 0.5672381, Scale: ephem.BJDTDB}, observe.Max)
+	lb, err := logbook.CreateDemo(filepath.Join(dir, "vigil.db"), &logbook.DemoRecords{
+		Sites:   []observe.Site{site},
+		Targets: []logbook.DemoTarget{{Target: star, MeanMagV: math.NaN(), Adopted: time.Date(2019, 1, 5, 20, 0, 0, 0, time.UTC), Source: "invented"}},
+		Nights:  []logbook.DemoNight{{Night: logbook.Night{Site: site.Name, Date: time.Date(2019, 9, 20, 0, 0, 0, 0, time.UTC)}}},
+	})
 	if err != nil {
 		fmt.Println(err)
 		return
 	}
 	defer lb.Close()
 	demo, _ := lb.IsDemo()
-	fmt.Println("demo:", demo)
 	sites, _ := lb.Sites()
-	for _, s := range sites {
-		fmt.Printf("%s at %+.4f, %+.4f\n", s.Name, s.LatDeg, s.LonDeg)
-	}
 	targets, _ := lb.Targets()
-	for _, t := range targets[:3] {
-		fmt.Printf("%s, %s, P = %.7f d\n", t.Name, t.Class, t.Ephemeris.PeriodDays)
-	}
-	mean, _ := lb.MeanMagV("Ashgrove V2")
-	fmt.Printf("Ashgrove V2 mean V: %.3f\n", mean)
+	fmt.Println("demo:", demo, len(sites), "site,", len(targets), "target")
 
 	_ = lb.ClearDemo()
 	demo, _ = lb.IsDemo()
+	sites, _ = lb.Sites()
 	targets, _ = lb.Targets()
-	fmt.Println("after ClearDemo:", demo, len(targets), "targets")
+	fmt.Println("after ClearDemo:", demo, len(sites), "sites,", len(targets), "targets")
 	// Output:
-	// demo: true
-	// Ashgrove Hill Observatory (demo) at +52.1172, -1.4538
-	// Bellbird Ridge School Observatory (demo) at -34.0521, +150.7411
-	// Ashgrove V1, pulsating, P = 0.5672381 d
-	// Ashgrove V2, pulsating, P = 5.7031240 d
-	// Ashgrove V3, pulsating, P = 0.0871234 d
-	// Ashgrove V2 mean V: 9.181
-	// after ClearDemo: false 0 targets
+	// demo: true 1 site, 1 target
+	// after ClearDemo: false 0 sites, 0 targets
 }
 
 // A night's log: the site, the plan, the measurements and the timings.

@@ -29,8 +29,8 @@ func TestMain(m *testing.M) {
 	os.Exit(code)
 }
 
-// sharedDemo returns the path of a demo logbook made once for the tests
-// that only read it. Open it with openShared.
+// sharedDemo returns the path of a demo logbook holding fxDemo, made once
+// for the tests that only read it.
 func sharedDemo(t testing.TB) string {
 	t.Helper()
 	demoOnce.Do(func() {
@@ -40,7 +40,7 @@ func sharedDemo(t testing.TB) string {
 		}
 		demoPath = filepath.Join(demoDir, "demo.db")
 		var lb *Logbook
-		lb, demoErr = CreateDemo(demoPath)
+		lb, demoErr = CreateDemo(demoPath, fxDemo(t))
 		if demoErr == nil {
 			demoErr = lb.Close()
 		}
@@ -150,6 +150,55 @@ func fxMeasurement(night int64, jd float64) Measurement {
 		Notes: "", Visual: ""}
 }
 
+// Fixture names of the demo records (fxDemo).
+const (
+	fxSchool  = "Low Meadow School"
+	fxTargetB = "Test Star B"
+)
+
+// fxDemo returns a small demo scenario that fills every table: two sites
+// (one with a horizon), two targets (one with an ephemeris history, one
+// with a mean V), two nights with plans, measurements raw, visual and
+// reduced only, own timings and a published one.
+func fxDemo(t testing.TB) *DemoRecords {
+	t.Helper()
+	school, err := observe.NewSite(fxSchool, -34.05, 150.74, 70, "Australia/Sydney", 25, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	b := observe.NewTarget(fxTargetB, ephem.Star{RAHours: 21.3, DecDeg: 41.2}, observe.Pulsating,
+		ephem.Ephemeris{Epoch: 2459003.442, PeriodDays: 5.703124, Scale: ephem.BJDTDB, EpochErr: 0.02, PeriodErr: 0.00002}, observe.Max)
+	b.Comps = []observe.Comp{{ID: "A", V: 8.05, BV: 0.9}, {ID: "B", V: 8.71, BV: 1.0}}
+	adopted := time.Date(2024, 1, 2, 20, 0, 0, 0, time.UTC)
+	later := AdoptedEphemeris{Ephemeris: ephem.Ephemeris{Epoch: 2460100.5432, PeriodDays: 1.2345691, Q: 3e-10,
+		Scale: ephem.BJDTDB, EpochErr: 0.0004, PeriodErr: 0.0000002}, Adopted: time.Date(2025, 6, 1, 21, 30, 0, 0, time.UTC),
+		Source: "own O-C fit 2025"}
+	jd := 2460749.4 // the night of fxDate
+	vis := Measurement{Target: fxTargetB, JDUTC: jd + 0.05, Filter: "vis", Visual: "A 2 V 3 B", Mag: 8.314,
+		ExposureS: math.NaN(), Airmass: 1.1, InstMag: math.NaN(), InstErr: math.NaN(), MagErr: math.NaN(), HJD: jd + 0.0532,
+		BJDTDB: jd + 0.05328}
+	reducedOnly := Measurement{Target: fxTargetB, JDUTC: jd + 1.02, Filter: "V", Mag: 8.9, MagErr: 0.01, ExposureS: math.NaN(),
+		Airmass: math.NaN(), InstMag: math.NaN(), InstErr: math.NaN(), HJD: math.NaN(), BJDTDB: math.NaN(), Notes: "from a table"}
+	return &DemoRecords{
+		Sites: []observe.Site{fxSiteValue(t), school},
+		Targets: []DemoTarget{
+			{Target: fxTargetValue(), MeanMagV: math.NaN(), Adopted: adopted, Source: "test catalogue", Later: []AdoptedEphemeris{later}},
+			{Target: b, MeanMagV: 9.181, Adopted: adopted, Source: "test catalogue"},
+		},
+		Nights: []DemoNight{
+			{Night: Night{Site: fxSite, Date: fxDate, Observer: "tester", Equipment: "test kit", Conditions: "clear", Notes: "demo night"},
+				Plan:         []PlanItem{{Target: fxTarget, Note: "minimum at 22:10"}, {Target: fxTargetB}},
+				Measurements: []Measurement{fxMeasurement(0, jd), fxMeasurement(0, jd+0.002), vis},
+				Timings: []Timing{{Target: fxTarget, JD: 2460749.41234, Scale: ephem.BJDTDB, SigmaDays: 0.0004, Kind: observe.Min,
+					Origin: Own, Method: "kvw", Filter: "V", Observer: "tester"}}},
+			{Night: Night{Site: fxSchool, Date: fxDate.AddDate(0, 0, 1), Observer: "club"},
+				Measurements: []Measurement{reducedOnly}},
+		},
+		Timings: []Timing{{Target: fxTarget, JD: 2455000.61234, Scale: ephem.HJD, SigmaDays: math.NaN(), Kind: observe.Min,
+			Secondary: true, Origin: Published, Method: "kvw", Source: "Invented Circular no. 1"}},
+	}
+}
+
 // counts returns the number of rows of every table.
 func counts(t testing.TB, lb *Logbook) map[string]int {
 	t.Helper()
@@ -162,54 +211,6 @@ func counts(t testing.TB, lb *Logbook) map[string]int {
 		out[bt.name] = n
 	}
 	return out
-}
-
-// wls solves weighted least squares y ≈ Σ_j c_j basis[i][j] with weights
-// w (normal equations, Gauss–Jordan), returning the coefficients and their
-// covariance (Σ w basisᵀ basis)⁻¹ (the weights are 1/σ²).
-func wls(basis [][]float64, y, w []float64) (c []float64, cov [][]float64) {
-	k := len(basis[0])
-	a := make([][]float64, k)
-	for i := range a {
-		a[i] = make([]float64, 2*k+1)
-		a[i][k+1+i] = 1
-	}
-	for r := range y {
-		for i := 0; i < k; i++ {
-			for j := 0; j < k; j++ {
-				a[i][j] += w[r] * basis[r][i] * basis[r][j]
-			}
-			a[i][k] += w[r] * basis[r][i] * y[r]
-		}
-	}
-	for col := 0; col < k; col++ {
-		piv := col
-		for r := col + 1; r < k; r++ {
-			if math.Abs(a[r][col]) > math.Abs(a[piv][col]) {
-				piv = r
-			}
-		}
-		a[col], a[piv] = a[piv], a[col]
-		f := 1 / a[col][col]
-		for j := range a[col] {
-			a[col][j] *= f
-		}
-		for r := 0; r < k; r++ {
-			if r != col {
-				g := a[r][col]
-				for j := range a[r] {
-					a[r][j] -= g * a[col][j]
-				}
-			}
-		}
-	}
-	c = make([]float64, k)
-	cov = make([][]float64, k)
-	for i := 0; i < k; i++ {
-		c[i] = a[i][k]
-		cov[i] = a[i][k+1 : 2*k+1]
-	}
-	return c, cov
 }
 
 // openRaw opens a logbook file without identifying or migrating it.

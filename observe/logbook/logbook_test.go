@@ -110,7 +110,7 @@ func TestCreateRefusesExisting(t *testing.T) {
 	}
 	for name, create := range map[string]func() error{
 		"Create":     func() error { _, err := Create(path); return err },
-		"CreateDemo": func() error { _, err := CreateDemo(path); return err },
+		"CreateDemo": func() error { _, err := CreateDemo(path, fxDemo(t)); return err },
 		"Restore":    func() error { _, err := Restore(path, strings.NewReader("{}"), "b.json"); return err },
 	} {
 		if err := create(); !errors.Is(err, ErrExists) || !strings.Contains(err.Error(), path) {

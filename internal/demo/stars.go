@@ -1,11 +1,14 @@
-package logbook
+package demo
 
 import (
+	"fmt"
 	"math"
 	"time"
 
 	"vigil/ephem"
 	"vigil/observe"
+	"vigil/observe/logbook"
+	"vigil/reduce"
 )
 
 // The demo scenario: two invented observatories and eight invented variable
@@ -19,9 +22,11 @@ const (
 	demoNote = "Demo (invented data)"
 )
 
-// The demo observatories.
+// SiteName is the name of the demo's main observatory (Site).
+const SiteName = "Ashgrove Hill Observatory" + demoTag
+
+// The demo's other observatory, its observers and their equipment.
 const (
-	demoSiteName   = "Ashgrove Hill Observatory" + demoTag
 	demoSchoolName = "Bellbird Ridge School Observatory" + demoTag
 	demoObserver   = "Demo Observer"
 	demoSchoolObs  = "Demo School Astronomy Club"
@@ -29,16 +34,36 @@ const (
 	demoSchoolKit  = "Demo kit: 200 mm Schmidt-Cassegrain, CMOS camera, V filter"
 )
 
-// demoSites returns the two demo observatories: one in the English
-// Midlands, WEST of Greenwich (so its east-positive longitude is negative),
-// with trees to the north-east and a roof to the south, and a school in
-// the southern hemisphere with a building to the west.
-func demoSites() ([]observe.Site, error) {
-	ash, err := observe.NewSite(demoSiteName, 52.1172, -1.4538, 140, "Europe/London", 20, observe.Horizon{
+// Site returns the demo's main observatory, the one source of its
+// definition: the fictitious Ashgrove Hill Observatory (demo) in the
+// English Midlands at 52.1172° N, 1.4538° W (WEST of Greenwich, so its
+// east-positive longitude is −1.4538), 140 m, time zone Europe/London,
+// lowest useful altitude 20°, with trees to the north-east (up to 35°) and
+// a roof to the south (24°).
+//
+// The values are constants of this package, checked by its tests; Site
+// panics only if they were edited into an invalid site.
+func Site() observe.Site {
+	s, err := ashgrove()
+	if err != nil {
+		panic(fmt.Sprintf("demo: the demo site's definition is invalid: %v", err))
+	}
+	return s
+}
+
+// ashgrove builds the demo's main observatory (see Site).
+func ashgrove() (observe.Site, error) {
+	return observe.NewSite(SiteName, 52.1172, -1.4538, 140, "Europe/London", 20, observe.Horizon{
 		{AzDeg: 0, AltDeg: 8}, {AzDeg: 25, AltDeg: 8}, {AzDeg: 35, AltDeg: 30}, {AzDeg: 50, AltDeg: 35},
 		{AzDeg: 65, AltDeg: 30}, {AzDeg: 75, AltDeg: 8}, // trees to the north-east
 		{AzDeg: 155, AltDeg: 8}, {AzDeg: 160, AltDeg: 24}, {AzDeg: 200, AltDeg: 24}, {AzDeg: 205, AltDeg: 8}, // the roof to the south
 	})
+}
+
+// demoSites returns the two demo observatories: Ashgrove Hill (Site), and
+// a school in the southern hemisphere with a building to the west.
+func demoSites() ([]observe.Site, error) {
+	ash, err := ashgrove()
 	if err != nil {
 		return nil, err
 	}
@@ -72,15 +97,17 @@ type demoStar struct {
 	shape    lightShape
 	comps    []observe.Comp
 	checks   []observe.Comp
-	history  []AdoptedEphemeris // in order of adoption; the last is current
+	history  []logbook.AdoptedEphemeris // in order of adoption; the last is current
 	notes    string
 	meanMagV bool // store the intensity-mean V (a Cepheid, for its distance)
 
 	// How the demo observer covers an extremum: the half-length of a run
-	// about it, the cadence, the exposure, and the half-width and degree of
-	// the polynomial fitted to time it.
+	// about it, the cadence, the exposure, and how it is timed: the
+	// half-width of the window, the method (reduce.MethodPoly when empty)
+	// and, for a polynomial, its degree.
 	runHalfDays, cadenceMin, exposureS float64
 	fitHalfDays                        float64
+	fitMethod                          reduce.ExtremumMethod
 	fitDegree                          int
 	runsPerSeason                      int // at Ashgrove
 	schoolRuns                         int // at the school, over the years
@@ -101,8 +128,8 @@ func demoStars() []demoStar {
 	lin := func(epoch, p float64, scale ephem.TimeScale, eErr, pErr float64) ephem.Ephemeris {
 		return ephem.Ephemeris{Epoch: epoch, PeriodDays: p, Scale: scale, EpochErr: eErr, PeriodErr: pErr}
 	}
-	first := func(e ephem.Ephemeris) AdoptedEphemeris {
-		return AdoptedEphemeris{Ephemeris: e, Adopted: demoAdopted, Source: demoCatalogue}
+	first := func(e ephem.Ephemeris) logbook.AdoptedEphemeris {
+		return logbook.AdoptedEphemeris{Ephemeris: e, Adopted: demoAdopted, Source: demoCatalogue}
 	}
 	circular := []string{"Invented Circular of Eclipsing Binaries, no. 41 (2003)", "Invented Circular of Eclipsing Binaries, no. 57 (2008)",
 		"Invented Circular of Eclipsing Binaries, no. 73 (2014)", "Invented Circular of Eclipsing Binaries, no. 88 (2018)"}
@@ -139,7 +166,7 @@ func demoStars() []demoStar {
 			shape:  lightShape{kind: shapePulsator, base: 11.35, amp: 1.03, width: 0.9},
 			comps:  []observe.Comp{{ID: "C1", V: 11.482, BV: 0.52}, {ID: "C2", V: 12.104, BV: 0.61}, {ID: "C3", V: 10.968, BV: 0.47}},
 			checks: []observe.Comp{{ID: "K1", V: 11.795, BV: 0.58}},
-			history: []AdoptedEphemeris{
+			history: []logbook.AdoptedEphemeris{
 				first(lin(2456001.4021, 0.567237, ephem.HJD, 0.002, 0.000002)),
 				{Ephemeris: lin(2459001.31274, 0.5672381, ephem.BJDTDB, 0.0006, 0.0000004), Adopted: time.Date(2021, 11, 2, 21, 15, 0, 0, time.UTC),
 					Source: "own O-C fit of the 2019-2021 maxima [demo, invented]"},
@@ -154,7 +181,7 @@ func demoStars() []demoStar {
 			shape:    lightShape{kind: shapePulsator, base: 8.92, amp: 0.79, width: 0.8},
 			comps:    []observe.Comp{{ID: "C1", V: 9.214, BV: 0.71}, {ID: "C2", V: 9.687, BV: 0.83}, {ID: "C3", V: 8.801, BV: 0.66}},
 			checks:   []observe.Comp{{ID: "K1", V: 9.455, BV: 0.77}},
-			history:  []AdoptedEphemeris{first(lin(2459003.442, 5.703124, ephem.BJDTDB, 0.02, 0.00002))},
+			history:  []logbook.AdoptedEphemeris{first(lin(2459003.442, 5.703124, ephem.BJDTDB, 0.02, 0.00002))},
 			notes:    demoNote + ": a Cepheid-like pulsator with a mean V magnitude for its period-luminosity distance; not a real star.",
 			meanMagV: true,
 			nightly:  true, cadenceMin: 3, exposureS: 30,
@@ -166,7 +193,7 @@ func demoStars() []demoStar {
 			shape:       lightShape{kind: shapeSine, base: 10.41, amp: 0.31},
 			comps:       []observe.Comp{{ID: "C1", V: 10.655, BV: 0.31}, {ID: "C2", V: 10.214, BV: 0.28}, {ID: "C3", V: 11.032, BV: 0.44}},
 			checks:      []observe.Comp{{ID: "K1", V: 10.876, BV: 0.39}},
-			history:     []AdoptedEphemeris{first(lin(2459000.05118, 0.0871234, ephem.BJDTDB, 0.0004, 0.00000002))},
+			history:     []logbook.AdoptedEphemeris{first(lin(2459000.05118, 0.0871234, ephem.BJDTDB, 0.0004, 0.00000002))},
 			notes:       demoNote + ": a short-period delta Scuti-like pulsator; not a real star.",
 			runHalfDays: 0.06, cadenceMin: 1.5, exposureS: 45, fitHalfDays: 0.012, fitDegree: 2, runsPerSeason: 1, schoolRuns: 2,
 			published: publishedSpec{fromYear: 2015, toYear: 2018, n: 3, sigmaDays: [2]float64{0.0008, 0.0015}, sources: journal},
@@ -177,13 +204,13 @@ func demoStars() []demoStar {
 			shape:  lightShape{kind: shapeAlgol, base: 9.82, amp: 1.23, depth2: 0.08, width: 0.022},
 			comps:  []observe.Comp{{ID: "C1", V: 10.102, BV: 0.12}, {ID: "C2", V: 9.655, BV: 0.35}, {ID: "C3", V: 10.731, BV: 0.58}},
 			checks: []observe.Comp{{ID: "K1", V: 10.344, BV: 0.41}},
-			history: []AdoptedEphemeris{
+			history: []logbook.AdoptedEphemeris{
 				{Ephemeris: lin(v4e1, v4p1, ephem.HJD, 0.0008, 0.0000006), Adopted: demoAdopted, Source: circular[0]},
 				{Ephemeris: lin(v4e2, v4p2, ephem.BJDTDB, 0.0004, 0.0000002), Adopted: time.Date(2023, 9, 14, 22, 40, 0, 0, time.UTC),
 					Source: "own O-C fit of the 2019-2023 minima, linear [demo, invented]"},
 			},
 			notes:       demoNote + ": an Algol-like eclipsing binary whose period grows (a parabola in O-C); not a real star.",
-			runHalfDays: 0.12, cadenceMin: 3, exposureS: 30, fitHalfDays: 0.05, fitDegree: 2, runsPerSeason: 2,
+			runHalfDays: 0.12, cadenceMin: 3, exposureS: 30, fitHalfDays: 0.05, fitMethod: reduce.MethodKvW, runsPerSeason: 2,
 			published: publishedSpec{fromYear: 2001, toYear: 2018, n: 24, sigmaDays: [2]float64{0.0008, 0.002}, sources: circular},
 		},
 		{
@@ -192,13 +219,13 @@ func demoStars() []demoStar {
 			shape:  lightShape{kind: shapeContact, base: 10.95, amp: 0.67, depth2: 0.55},
 			comps:  []observe.Comp{{ID: "C1", V: 11.208, BV: 0.66}, {ID: "C2", V: 11.597, BV: 0.72}, {ID: "C3", V: 10.842, BV: 0.55}},
 			checks: []observe.Comp{{ID: "K1", V: 11.380, BV: 0.69}},
-			history: []AdoptedEphemeris{
+			history: []logbook.AdoptedEphemeris{
 				first(lin(2455000.2146, 0.3691228, ephem.HJD, 0.001, 0.000001)),
 				{Ephemeris: lin(v5.epoch, v5.periodDays, ephem.BJDTDB, 0.0008, 0.0000001), Adopted: time.Date(2022, 5, 20, 23, 5, 0, 0, time.UTC),
 					Source: "own O-C fit of the 2009-2022 minima, linear [demo, invented]"},
 			},
 			notes:       demoNote + ": a W UMa-like contact binary; a third body makes its O-C wobble (light-travel time); not a real star.",
-			runHalfDays: 0.05, cadenceMin: 2, exposureS: 60, fitHalfDays: 0.025, fitDegree: 2, runsPerSeason: 3,
+			runHalfDays: 0.05, cadenceMin: 2, exposureS: 60, fitHalfDays: 0.025, fitMethod: reduce.MethodKvW, runsPerSeason: 3,
 			published: publishedSpec{fromYear: 2009, toYear: 2018, n: 30, sigmaDays: [2]float64{0.0004, 0.0008}, secondaryEvery: 3, sources: circular},
 		},
 		{
@@ -207,9 +234,9 @@ func demoStars() []demoStar {
 			shape:       lightShape{kind: shapeAlgol, base: 10.22, amp: 0.86, depth2: 0.25, width: 0.028},
 			comps:       []observe.Comp{{ID: "C1", V: 10.493, BV: 0.44}, {ID: "C2", V: 10.911, BV: 0.51}, {ID: "C3", V: 10.118, BV: 0.38}},
 			checks:      []observe.Comp{{ID: "K1", V: 10.705, BV: 0.47}},
-			history:     []AdoptedEphemeris{first(lin(roundTo(2459001.04406-hjdOffsetGuess, 5), 1.7393186, ephem.HJD, 0.0006, 0.0000008))},
+			history:     []logbook.AdoptedEphemeris{first(lin(roundTo(2459001.04406-hjdOffsetGuess, 5), 1.7393186, ephem.HJD, 0.0006, 0.0000008))},
 			notes:       demoNote + ": a detached eclipsing binary with secondary minima at phase 0.5; not a real star.",
-			runHalfDays: 0.07, cadenceMin: 2.5, exposureS: 45, fitHalfDays: 0.035, fitDegree: 2, runsPerSeason: 1, schoolRuns: 6,
+			runHalfDays: 0.07, cadenceMin: 2.5, exposureS: 45, fitHalfDays: 0.035, fitMethod: reduce.MethodKvW, runsPerSeason: 1, schoolRuns: 6,
 			published: publishedSpec{fromYear: 2010, toYear: 2018, n: 8, sigmaDays: [2]float64{0.0008, 0.0015}, secondaryEvery: 2, sources: journal},
 		},
 		{
@@ -218,7 +245,7 @@ func demoStars() []demoStar {
 			shape:       lightShape{kind: shapeSine, base: 12.03, amp: 0.48},
 			comps:       []observe.Comp{{ID: "C1", V: 12.315, BV: 0.42}, {ID: "C2", V: 11.874, BV: 0.36}, {ID: "C3", V: 12.660, BV: 0.50}},
 			checks:      []observe.Comp{{ID: "K1", V: 12.198, BV: 0.45}},
-			history:     []AdoptedEphemeris{first(lin(2459000.22093, 0.3318271, ephem.BJDTDB, 0.001, 0.0000005))},
+			history:     []logbook.AdoptedEphemeris{first(lin(2459000.22093, 0.3318271, ephem.BJDTDB, 0.001, 0.0000005))},
 			notes:       demoNote + ": a first-overtone RR Lyrae-like pulsator with a nearly sinusoidal light curve; not a real star.",
 			runHalfDays: 0.06, cadenceMin: 2, exposureS: 90, fitHalfDays: 0.04, fitDegree: 2, runsPerSeason: 1, schoolRuns: 3,
 			published: publishedSpec{fromYear: 2013, toYear: 2018, n: 3, sigmaDays: [2]float64{0.002, 0.004}, sources: journal},
@@ -229,7 +256,7 @@ func demoStars() []demoStar {
 			shape: lightShape{kind: shapeSine, base: 8.3, amp: 3.3},
 			comps: []observe.Comp{{ID: "A", V: 8.05, BV: 0.9}, {ID: "B", V: 8.71, BV: 1.0}, {ID: "C", V: 9.32, BV: 0.8},
 				{ID: "D", V: 9.95, BV: 1.1}, {ID: "E", V: 10.58, BV: 0.7}, {ID: "F", V: 11.24, BV: 0.9}, {ID: "G", V: 11.87, BV: 1.0}},
-			history:   []AdoptedEphemeris{first(lin(2458985.0, 287.4, ephem.BJDTDB, 3, 0.3))},
+			history:   []logbook.AdoptedEphemeris{first(lin(2458985.0, 287.4, ephem.BJDTDB, 3, 0.3))},
 			notes:     demoNote + ": a long-period pulsator followed by eye (visual estimates, fractional method); not a real star.",
 			visual:    true,
 			published: publishedSpec{fromYear: 2008, toYear: 2018, n: 6, sigmaDays: [2]float64{2, 4}, sources: journal},
@@ -264,11 +291,23 @@ func (d *demoStar) target() observe.Target {
 	return t
 }
 
-// planTarget is the star with its true elements, for finding when its
-// extrema can be watched.
-func (d *demoStar) planTarget() observe.Target {
-	e := ephem.Ephemeris{Epoch: d.truth.epoch, PeriodDays: d.truth.periodDays, Q: d.truth.q, Scale: ephem.BJDTDB}
-	t := observe.NewTarget(d.name, d.star, d.class, e, d.kind)
-	t.Secondary = d.second
-	return t
+// meanSamples is the number of phases, evenly spaced, at which the light
+// curve is sampled for its intensity mean.
+const meanSamples = 4000
+
+// record returns the star as the demo logbook stores it: the catalogue
+// entry with its first ephemeris, the ephemerides adopted since, and for a
+// Cepheid-like star its intensity-mean V (see lightShape.intensityMean), to
+// 3 decimals as a catalogue prints it.
+func (d *demoStar) record() (logbook.DemoTarget, error) {
+	mean := math.NaN()
+	if d.meanMagV {
+		m, err := d.shape.intensityMean(meanSamples)
+		if err != nil {
+			return logbook.DemoTarget{}, fmt.Errorf("%s: intensity mean: %w", d.name, err)
+		}
+		mean = roundTo(m, 3)
+	}
+	return logbook.DemoTarget{Target: d.target(), MeanMagV: mean, Adopted: d.history[0].Adopted,
+		Source: d.history[0].Source, Later: d.history[1:]}, nil
 }

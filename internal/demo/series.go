@@ -1,11 +1,14 @@
-package logbook
+package demo
 
 import (
 	"fmt"
 	"math"
 	"time"
+
 	"vigil/ephem"
 	"vigil/observe"
+	"vigil/observe/logbook"
+	"vigil/reduce"
 )
 
 // bestTime returns the instant of the night of date at which the star
@@ -31,6 +34,7 @@ func (g *generator) bestTime(site observe.Site, v *ephem.StarVec, date time.Time
 // through its seasons of 2021–2024 (a Cepheid followed through its cycle).
 func (g *generator) nightlySeries(site observe.Site, s *demoStar) error {
 	v := s.star.Vec()
+	p := photometry(s.target(), site, g.frames)
 	for year := 2021; year <= 2024; year++ {
 		from, to := season(s, year, 60)
 		for d := from; d.Before(to); d = d.AddDate(0, 0, 3) {
@@ -42,15 +46,22 @@ func (g *generator) nightlySeries(site observe.Site, s *demoStar) error {
 				continue
 			}
 			n := g.night(site, d)
-			zp := g.zp[site.Name+" "+dateKey(d)]
+			zp := g.zp[nightKey(site, d)]
+			var ms []logbook.Measurement
 			for k := 0; k < 3; k++ {
 				f := g.frameAt(site, &v, fr.utc.AddDays(float64(k)*s.cadenceMin/1440))
 				if !usable(&site, f) {
 					break
 				}
-				m, _ := g.expose(s, f, zp)
-				n.meas = append(n.meas, m)
+				ms = append(ms, g.expose(s, f, zp))
 			}
+			if len(ms) == 0 {
+				continue
+			}
+			if err := reducePhotometry(p, ms); err != nil {
+				return fmt.Errorf("frames of %s: %w", dateKey(d), err)
+			}
+			n.Measurements = append(n.Measurements, ms...)
 			addPlan(n, s.name, "nightly frames through the cycle")
 		}
 	}
@@ -58,17 +69,18 @@ func (g *generator) nightlySeries(site observe.Site, s *demoStar) error {
 }
 
 // visualSeries records a visual estimate of the star about once a week,
-// 2019–2026, by the fractional method against its comparison stars, and
-// times the maxima it covers from the estimates.
+// 2019–2026, by the fractional method against its comparison stars
+// (reduce.ParseEstimate and VisualEstimate.Magnitude, methods sheet §9),
+// and times the maxima it covers from the estimates.
 func (g *generator) visualSeries(site observe.Site, s *demoStar) error {
 	v := s.star.Vec()
-	var ts, ms []float64
-	type est struct {
-		bjd, mag float64
-		n        *demoNight
+	chart := map[string]float64{}
+	for _, c := range s.comps {
+		chart[c.ID] = c.V
 	}
-	var all []est
-	for d := demoFirstNight; d.Before(demoLastNight); d = d.AddDate(0, 0, 5+g.rng.IntN(6)) {
+	var pts []reduce.Point
+	var nights []*logbook.DemoNight // the night of each point
+	for d := firstNight; d.Before(lastNight); d = d.AddDate(0, 0, 5+g.rng.IntN(6)) {
 		if g.rng.Float64() < 0.35 {
 			continue
 		}
@@ -78,7 +90,7 @@ func (g *generator) visualSeries(site observe.Site, s *demoStar) error {
 		}
 		n := g.night(site, d)
 		mTrue := s.shape.magAt(s.truth.phaseAt(fr.bjd))
-		seen := mTrue + 0.12*g.rng.NormFloat64() // a visual estimate's scatter (methods sheet §15)
+		seen := mTrue + visualScatter*g.rng.NormFloat64()
 		// The bracketing comparison stars, brighter (A) and fainter (B).
 		ia := 0
 		for ia+2 < len(s.comps) && s.comps[ia+1].V <= seen {
@@ -91,48 +103,71 @@ func (g *generator) visualSeries(site observe.Site, s *demoStar) error {
 		}
 		x := int(math.Round((seen - a.V) / (b.V - a.V) * float64(steps)))
 		x = min(steps, max(0, x))
-		m := Measurement{Target: s.name, JDUTC: fr.utc.JDUTC(), Filter: "vis", Airmass: fr.airmass, HJD: fr.hjd, BJDTDB: fr.bjd,
-			Visual: fmt.Sprintf("%s %d V %d %s", a.ID, x, steps-x, b.ID), ExposureS: math.NaN(), InstMag: math.NaN(),
-			InstErr: math.NaN(), MagErr: math.NaN()}
-		m.Mag = fractionalEstimate(a.V, x, steps-x, b.V)
-		n.meas = append(n.meas, m)
+		m := logbook.Measurement{Target: s.name, JDUTC: fr.utc.JDUTC(), Filter: "vis", Airmass: fr.airmass, HJD: fr.hjd,
+			BJDTDB: fr.bjd, Visual: fmt.Sprintf("%s %d V %d %s", a.ID, x, steps-x, b.ID), ExposureS: math.NaN(),
+			InstMag: math.NaN(), InstErr: math.NaN(), MagErr: math.NaN()}
+		est, err := reduce.ParseEstimate(m.Visual)
+		if err != nil {
+			return fmt.Errorf("visual estimate %q: %w", m.Visual, err)
+		}
+		if m.Mag, _, err = est.Magnitude(chart, 0); err != nil {
+			return fmt.Errorf("visual estimate %q: %w", m.Visual, err)
+		}
+		n.Measurements = append(n.Measurements, m)
 		addPlan(n, s.name, "visual estimate")
-		all = append(all, est{fr.bjd, m.Mag, n})
+		pts = append(pts, reduce.Point{T: fr.bjd, Mag: m.Mag, Err: math.NaN()})
+		nights = append(nights, n)
 	}
-	// Time each maximum that has estimates on both sides of it.
-	first, last := julianDay(demoFirstNight.Date()), julianDay(demoLastNight.Date())
+	// Time each maximum that has estimates on both sides of it: a parabola
+	// (reduce.Extremum) through the estimates within visualHalfDays of the
+	// predicted time, kept when the estimates reach visualCoverDays on
+	// both sides and the fit is not hopelessly loose.
+	first, last := julianDay(firstNight.Date()), julianDay(lastNight.Date())
 	for c := math.Ceil((first - s.truth.epoch) / s.truth.periodDays); ; c++ {
 		tMax := s.truth.eventTime(c)
 		if tMax > last {
 			break
 		}
-		ts, ms = ts[:0], ms[:0]
-		var last *demoNight
-		for _, e := range all {
-			if math.Abs(e.bjd-tMax) <= 45 {
-				ts, ms, last = append(ts, e.bjd), append(ms, e.mag), e.n
+		from, to := tMax-visualHalfDays, tMax+visualHalfDays
+		var in []int
+		for i, p := range pts {
+			if p.T >= from && p.T <= to {
+				in = append(in, i)
 			}
 		}
-		if len(ts) < 8 || ts[0] > tMax-20 || ts[len(ts)-1] < tMax+20 {
+		if len(in) < 8 || pts[in[0]].T > tMax-visualCoverDays || pts[in[len(in)-1]].T < tMax+visualCoverDays {
 			continue
 		}
-		tExt, sigma, err := polyExtremum(ts, ms, 2, true)
-		if err != nil || sigma > 10 {
+		tm, err := reduce.Extremum(pts, reduce.ExtremumOptions{Kind: reduce.Maximum, Method: reduce.MethodPoly,
+			From: from, To: to, Degree: 2, Bootstrap: -1})
+		if err != nil || tm.Sigma > visualMaxSigmaDays {
 			continue
 		}
-		last.timings = append(last.timings, Timing{Target: s.name, JD: tExt, Scale: ephem.BJDTDB, SigmaDays: sigma,
-			Kind: observe.Max, Origin: Own, Method: "poly2 (visual estimates)", Filter: "vis", Observer: last.night.Observer,
-			Notes: demoNote + ": fitted to the visual estimates within 45 days of the maximum."})
+		n := nights[in[len(in)-1]]
+		n.Timings = append(n.Timings, logbook.Timing{Target: s.name, JD: tm.Time, Scale: ephem.BJDTDB, SigmaDays: tm.Sigma,
+			Kind: observe.Max, Origin: logbook.Own, Method: "poly2 (visual estimates)", Filter: "vis", Observer: n.Night.Observer,
+			Notes: fmt.Sprintf("%s: fitted to the visual estimates within %d days of the maximum.", demoNote, visualHalfDays)})
 	}
 	return nil
 }
 
+// The demo's visual observing: the scatter of one estimate (common
+// practice: 0.1–0.2 mag, methods sheet §15), and how a maximum is timed
+// from the estimates: within ±visualHalfDays of the predicted time, when
+// they reach visualCoverDays on both sides, kept when σ ≤ visualMaxSigmaDays.
+const (
+	visualScatter      = 0.12 // mag
+	visualHalfDays     = 45   // days
+	visualCoverDays    = 20   // days
+	visualMaxSigmaDays = 10   // days
+)
+
 // publishedTimings invents the star's published timings: true extremum
 // times with noise of the stated uncertainty, on the HJD scale as older
 // publications give them.
-func (g *generator) publishedTimings(s *demoStar) ([]Timing, error) {
+func (g *generator) publishedTimings(s *demoStar) ([]logbook.Timing, error) {
 	ps := s.published
-	var out []Timing
+	var out []logbook.Timing
 	if ps.n == 0 {
 		return nil, nil
 	}
@@ -160,8 +195,8 @@ func (g *generator) publishedTimings(s *demoStar) ([]Timing, error) {
 		if s.class == observe.Eclipsing {
 			method = "kvw"
 		}
-		out = append(out, Timing{Target: s.name, JD: roundTo(hjd, 5), Scale: ephem.HJD, SigmaDays: sigma,
-			Kind: s.kind, Secondary: secondary, Origin: Published, Method: method, Source: ps.sources[k%len(ps.sources)],
+		out = append(out, logbook.Timing{Target: s.name, JD: roundTo(hjd, 5), Scale: ephem.HJD, SigmaDays: sigma,
+			Kind: s.kind, Secondary: secondary, Origin: logbook.Published, Method: method, Source: ps.sources[k%len(ps.sources)],
 			Notes: demoNote + ": an invented published timing."})
 	}
 	return out, nil
