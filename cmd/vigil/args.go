@@ -8,6 +8,8 @@ import (
 	"time"
 
 	"vigil/ephem"
+	"vigil/internal/demo"
+	"vigil/observe"
 )
 
 // This file holds the flags several commands share: the site (--lat --lon
@@ -16,28 +18,41 @@ import (
 
 // observer is a site and, when it is known, its civil time zone. Coordinates
 // alone do not tell the zone: then zone is nil and tables print UTC only.
+// A site named by --site (from the logbook, or the demo's) comes whole in
+// place, with its lowest useful altitude and horizon profile, which the
+// planner needs; place is nil for --lat/--lon.
 type observer struct {
-	site ephem.Site
-	zone *time.Location
+	site  ephem.Site
+	zone  *time.Location
+	place *observe.Site
 }
 
-// siteFlags are the flags that say where the observer stands.
+// siteFlags are the flags that say where the observer stands, and the
+// logbook that --site names a site of.
 type siteFlags struct {
 	lat, lon, elev, name *string
+	book                 *bookFlag
 }
 
-// addSiteFlags declares --lat, --lon, --elev and --site on f.
-func addSiteFlags(f *flags) *siteFlags {
+// siteNameUsage is the help of --site.
+const siteNameUsage = "a site of the logbook instead of --lat/--lon/--elev: its name, in any case, or a part of it that only one site's name contains; " +
+	"demo is the demo site (" + demo.SiteName + ") and needs no logbook"
+
+// addSiteFlags declares --lat, --lon, --elev, --site and --logbook on f.
+func addSiteFlags(e *env, f *flags) *siteFlags {
 	const unlessSite = "required unless --site"
-	return &siteFlags{
+	s := &siteFlags{
 		lat:  f.value("lat", "DEG", "", "site latitude in degrees, north positive, decimal (52.1172) or sexagesimal (+52:07:02)", unlessSite),
 		lon:  f.value("lon", "DEG", "", "site longitude in degrees, EAST positive (west of Greenwich is negative: -1.4538), decimal or sexagesimal", unlessSite),
 		elev: f.value("elev", "METRES", "0", "site elevation in metres above sea level", ""),
-		name: f.value("site", "NAME", "", fmt.Sprintf("a named site instead of --lat/--lon/--elev; until the logbook exists the only one is %q (or %q)", demoSiteName, demoSiteAlias), ""),
+		name: f.value("site", "NAME", "", siteNameUsage, ""),
 	}
+	s.book = addLogbookFlag(e, f)
+	return s
 }
 
-// resolve returns the observer the flags describe.
+// resolve returns the observer the flags describe. --site opens the logbook
+// (except for demo without --logbook); --lat/--lon never do.
 func (s *siteFlags) resolve(f *flags) (observer, error) {
 	if f.given("site") {
 		for _, n := range []string{"lat", "lon", "elev"} {
@@ -46,10 +61,21 @@ func (s *siteFlags) resolve(f *flags) (observer, error) {
 			}
 		}
 		name := strings.TrimSpace(*s.name)
-		if strings.EqualFold(name, demoSiteName) || strings.EqualFold(name, demoSiteAlias) {
-			return demoObserver()
+		if name == "" {
+			return observer{}, &flagError{flag: "site", err: fmt.Errorf("empty value: want the name of a site of the logbook, or %s", demoSiteAlias)}
 		}
-		return observer{}, &flagError{flag: "site", err: fmt.Errorf("no site named %q: named sites will come from the logbook, which is not there yet; the only named site is %q; give --lat and --lon instead", *s.name, demoSiteName)}
+		if strings.EqualFold(name, demoSiteAlias) && !f.given("logbook") {
+			return demoObserver(), nil
+		}
+		lb, err := s.book.open()
+		if err != nil {
+			return observer{}, err
+		}
+		site, err := findSite(lb, name)
+		if err != nil {
+			return observer{}, err
+		}
+		return placeObserver(site), nil
 	}
 	for _, n := range []string{"lat", "lon"} {
 		if !f.given(n) {

@@ -45,19 +45,21 @@ const (
 
 func runChart(e *env, args []string) error {
 	f := newFlags(e.cmd,
-		"--targets FILE (--lat DEG --lon DEG [--elev METRES] [--tz ZONE] | --site NAME) --date YYYY-MM-DD|tonight [--only NAME,...] --out FILE.png|.svg|.pdf [--night-red] [--width CM] [--height CM] [--json]",
+		"[--targets FILE] (--lat DEG --lon DEG [--elev METRES] [--tz ZONE] | --site NAME) [--logbook PATH] --date YYYY-MM-DD|tonight [--only NAME,...] --out FILE.png|.svg|.pdf [--night-red] [--width CM] [--height CM] [--json]",
 		`The altitude chart of one night: the airless altitude of the chosen targets
 and of the Moon against time, from an hour before sunset to an hour after
 sunrise, over the sky shaded from day through civil, nautical and
 astronomical twilight to night; the site's lowest useful altitude (--min-alt)
 dotted; each predicted extremum marked (▲ maximum, ▼ minimum; filled when
 observable) and its coverage window drawn as a bar. The time axis is in local
-time (--tz, or the demo site's zone), with a UTC row when they differ.
+time (--tz, or the zone of the --site), with a UTC row when they differ.
 The file is written whole or not at all, in the format its extension names;
 the path written is printed (with --json: {out, format, width_cm, height_cm,
 date, targets, events, palette}). FILE is a target catalogue as for vigil
-plan (CSV, or a VOTable .vot/.xml).`)
-	pf := addPlannerFlags(f)
+plan (CSV, or a VOTable .vot/.xml); without --targets the targets are the
+logbook's. A --site brings its lowest altitude and horizon profile, as for
+vigil plan.`)
+	pf := addPlannerFlags(e, f)
 	dateText := f.required("date", "YYYY-MM-DD", "the date the night begins on, or tonight: the site's local date, the day before until local noon")
 	onlyText := f.value("only", "NAME,...", "", fmt.Sprintf("the targets to draw, by name, separated by commas (default: all of FILE, at most %d)", chartMaxTargets), "optional")
 	outText := f.required("out", "FILE", "the file to write: .png, .svg or .pdf")

@@ -8,15 +8,37 @@
 //	vigil predict   the coming maxima or minima of one star, and which can be observed
 //	vigil plan      the extrema of a list of targets over one night or several, ranked
 //	vigil chart     the altitude chart of one night, as PNG, SVG or PDF
+//	vigil log       the observing log of one night from the logbook, as PDF or plain text
 //	vigil reduce    differential photometry to calibrated magnitudes
 //	vigil period    period search by Lomb–Scargle or phase dispersion
 //	vigil extremum  the time of one maximum or minimum
 //	vigil oc        O−C against an ephemeris, and what it says about the period
 //	vigil distance  the period–luminosity distance of a Cepheid
+//	vigil logbook   the logbook file: info, check, CSV export and import, JSON backup and restore
 //	vigil help [COMMAND]
 //
 // Every subcommand takes --help. Bad input exits with status 2 and one line on
 // stderr naming the flag at fault; nothing is written on stdout then.
+//
+// # The logbook
+//
+// Every command that reads or writes stored data takes --logbook PATH
+// (default vigil/vigil.db in the user's configuration directory,
+// logbook.DefaultPath). A logbook that does not exist yet is created with the
+// demo scenario in it (demo.OpenOrCreate); a file that is not a logbook, or
+// was written by a newer vigil, is refused with a message naming --logbook
+// and left as it is. The logbook is opened only when a step needs it: a run
+// with --lat and --lon never opens or makes one.
+//
+// --site NAME, on every command with site flags, names a site of the
+// logbook: its exact name, else the one equal to it in any case, else the
+// only one whose name contains it; "demo" is the demo's observatory
+// (demo.Site) and needs no logbook. A named site brings its time zone, and to
+// plan and chart its lowest useful altitude and horizon profile. plan and
+// chart take the logbook's targets when --targets is not given; vigil log
+// takes them always, with the night's record (observer, measurements,
+// timings). vigil --logbook PATH shows tonight at the first site of that
+// logbook (the window will open on it).
 //
 // This package only wires flags to the engine (vigil/ephem and the packages
 // above it) and prints: it computes nothing itself.
@@ -59,11 +81,13 @@ var commands = []command{
 	predictCommand,
 	planCommand,
 	chartCommand,
+	logCommand,
 	reduceCommand,
 	periodCommand,
 	extremumCommand,
 	ocCommand,
 	distanceCommand,
+	logbookCommand,
 }
 
 // clock tells the time; tests replace it to pin "now" and "tonight".
@@ -77,7 +101,12 @@ type env struct {
 	stdin  io.Reader
 	stdout *bytes.Buffer
 	now    func() time.Time
+	closes []func(failed bool) error // run when the command is done (an open logbook)
 }
+
+// atExit arranges for close to run when the command is done, whether it
+// succeeded (failed is false) or not.
+func (e *env) atExit(close func(failed bool) error) { e.closes = append(e.closes, close) }
 
 // run executes the command line args (without the program name) and returns
 // the exit status.
@@ -85,6 +114,13 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	std := streams{stdin, stdout, stderr}
 	if len(args) == 0 {
 		return std.finish("vigil", tonight)
+	}
+	if path, ok, err := topLevelLogbook(args); ok || err != nil {
+		if err != nil {
+			fmt.Fprintf(stderr, "vigil: %s\n", oneLine(err.Error()))
+			return exitUsage
+		}
+		return std.finish("vigil", func(e *env) error { return tonightIn(e, path) })
 	}
 	name := args[0]
 	switch name {
@@ -118,8 +154,16 @@ type streams struct {
 // (success) or prints the error as one line on stderr and discards it.
 func (s streams) finish(cmd string, f func(e *env) error) int {
 	e := &env{cmd: cmd, stdin: s.stdin, stdout: new(bytes.Buffer), now: clock}
-	if err := f(e); err != nil && !errors.Is(err, errHelp) {
-		fmt.Fprintf(s.stderr, "%s: %s\n", cmd, oneLine(err.Error()))
+	err := f(e)
+	failed := err != nil && !errors.Is(err, errHelp)
+	for i := len(e.closes) - 1; i >= 0; i-- {
+		if cerr := e.closes[i](failed); cerr != nil && err == nil {
+			err = fmt.Errorf("closing: %w", cerr)
+		}
+	}
+	if err != nil && !errors.Is(err, errHelp) {
+		// e.cmd, which a command group sets to the name of its command.
+		fmt.Fprintf(s.stderr, "%s: %s\n", e.cmd, oneLine(err.Error()))
 		return exitUsage
 	}
 	if _, err := s.stdout.Write(e.stdout.Bytes()); err != nil {
@@ -168,6 +212,7 @@ func writeHelp(w io.Writer) {
 
 Usage:
   vigil                 tonight's sky at the demo site (the window will open here)
+  vigil --logbook PATH  tonight's sky at the first site of that logbook
   vigil COMMAND [flags] answer on the command line
   vigil help COMMAND    the flags of one command (same as vigil COMMAND --help)
 
@@ -183,6 +228,10 @@ ICRS / J2000; instants in ISO 8601 UTC (2026-12-01T03:00:00Z) or as a Julian
 date with a JD prefix (JD2461375.625); altitudes are airless unless a name says
 refracted; azimuth from north through east. --json prints one JSON object.
 Bad input exits with status 2 and one line on stderr naming the flag.
+The logbook: --logbook PATH on every command that reads or writes stored
+data (default vigil/vigil.db in the user's configuration directory); one that
+does not exist yet is created with the demo scenario in it. --site NAME names
+one of its sites; --site demo is the demo site and needs no logbook.
 `)
 }
 

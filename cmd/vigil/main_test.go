@@ -6,6 +6,7 @@ import (
 	"time"
 
 	"vigil/ephem"
+	"vigil/internal/demo"
 )
 
 // TestBadInput checks the contract for bad input (spec/cli.md,
@@ -142,10 +143,7 @@ func TestHelp(t *testing.T) {
 // (the demo site: GMT in winter, BST = UTC+1 in summer), else local mean time
 // UTC + longitude/15 h.
 func TestTonightDate(t *testing.T) {
-	demo, err := demoObserver()
-	if err != nil {
-		t.Fatal(err)
-	}
+	demo := demoObserver()
 	east := observer{site: siteAt(t, 50, 150)}
 	for _, tc := range []struct {
 		name string
@@ -183,7 +181,7 @@ func TestNoArguments(t *testing.T) {
 	if r.code != exitOK || r.stderr != "" {
 		t.Fatalf("exit %d, stderr %q", r.code, r.stderr)
 	}
-	m := mustJSON(t, "night", "--site", demoSiteName, "--date", "2026-07-01", "--json")
+	m := mustJSON(t, "night", "--site", demo.SiteName, "--date", "2026-07-01", "--json")
 	sunset, ok := instant(t, m, "sunset")
 	if !ok {
 		t.Fatal("no sunset at the demo site on 2026-07-01")

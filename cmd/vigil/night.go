@@ -39,7 +39,7 @@ type nightResponse struct {
 
 func runNight(e *env, args []string) error {
 	f := newFlags(e.cmd,
-		"--lat DEG --lon DEG [--elev METRES] --date YYYY-MM-DD [--json]",
+		"(--lat DEG --lon DEG [--elev METRES] | --site NAME [--logbook PATH]) --date YYYY-MM-DD [--json]",
 		`The dark hours of one night at a site. The night of a date runs from local
 mean noon of that date to local mean noon of the next day (local mean time =
 UTC + longitude/15 h). Sunset and sunrise: the Sun's centre at -0.8333°
@@ -48,7 +48,7 @@ airless altitude; civil, nautical and astronomical twilight at -6°, -12° and
 (Meeus 1998, ch. 15), reported between sunset and sunrise only. An event that
 does not happen that night is null (—). The Moon's illuminated fraction is
 for the midpoint of sunset and sunrise.`)
-	site := addSiteFlags(f)
+	site := addSiteFlags(e, f)
 	dateText := f.required("date", "YYYY-MM-DD", "the date the night begins on (its evening), or tonight: the site's local date, the day before until local noon")
 	asJSON := f.toggle("json", "print one JSON object instead of a table")
 	if err := f.parse(args, e.stdout); err != nil {

@@ -124,8 +124,11 @@ not all the window), part (some of the window, not the extremum) or none
 fraction, B = 1 for a whole window, A the age of the last timing over a year
 (1 when never timed), U the ephemeris's uncertainty over the window's
 half-width (common practice, not a published method). Times in UTC and in the
-site's zone: --tz with --lat/--lon (default UTC), the demo site's own zone.
-FILE is a target catalogue in CSV (columns name, ra, dec, epoch, period and
+site's zone: --tz with --lat/--lon (default UTC), a --site's own zone. A site
+named by --site brings its lowest useful altitude (unless --min-alt is given)
+and its horizon profile: behind the horizon counts as not usable.
+Without --targets the targets are the logbook's, each with its current
+ephemeris and its last timing. FILE is a target catalogue in CSV (columns name, ra, dec, epoch, period and
 optional pm_ra, pm_dec, class, kind, timescale, q, epoch_err, period_err,
 secondary, mag_bright, mag_faint, comps, checks, last_timing, notes) or an
 IVOA VOTable (.vot, .xml) with TABLEDATA.
@@ -142,9 +145,9 @@ reasons}, score, warnings}]}]. Instants are {utc, local} objects (local: ISO
 
 func runPlan(e *env, args []string) error {
 	f := newFlags(e.cmd,
-		"--targets FILE (--lat DEG --lon DEG [--elev METRES] [--tz ZONE] | --site NAME) --date YYYY-MM-DD|tonight [--nights N] [--min-alt DEG] [--sun-alt DEG] [--moon-sep DEG] [--window-fraction F] [--rank] [--json]",
+		"[--targets FILE] (--lat DEG --lon DEG [--elev METRES] [--tz ZONE] | --site NAME) [--logbook PATH] --date YYYY-MM-DD|tonight [--nights N] [--min-alt DEG] [--sun-alt DEG] [--moon-sep DEG] [--window-fraction F] [--rank] [--json]",
 		planAbout)
-	pf := addPlannerFlags(f)
+	pf := addPlannerFlags(e, f)
 	dateText := f.required("date", "YYYY-MM-DD", "the date the (first) night begins on, or tonight: the site's local date, the day before until local noon")
 	nightsText := f.value("nights", "N", "1", fmt.Sprintf("number of consecutive nights, 1 to %d", observe.MaxSpanDays), "")
 	rank := f.toggle("rank", "list each night's events best first (by score) instead of in time order")
@@ -198,14 +201,14 @@ const (
 )
 
 // addPlannerFlags declares the shared flags on f.
-func addPlannerFlags(f *flags) *plannerFlags {
+func addPlannerFlags(e *env, f *flags) *plannerFlags {
 	def := observe.DefaultConstraints()
 	pf := &plannerFlags{}
-	pf.targets = f.required("targets", "FILE", "target catalogue: CSV with a header row ('#' starts a comment line), or an IVOA VOTable (.vot or .xml)")
+	pf.targets = f.value("targets", "FILE", "", "target catalogue: CSV with a header row ('#' starts a comment line), or an IVOA VOTable (.vot or .xml)", "optional; default the logbook's targets")
 	pf.votScale = f.value("votable-timescale", "hjd|bjd", "", "time scale of the epochs of a VOTable that does not say (no TIMESYS, field name or timescale column)", "optional")
-	pf.site = addSiteFlags(f)
-	pf.tz = f.value("tz", "ZONE", "UTC", "IANA time zone of the local times with --lat/--lon (Europe/Berlin); the demo site has its own", "")
-	pf.minAlt = f.value("min-alt", "DEG", fmt.Sprint(planMinAltDeg), "lowest useful airless altitude of a star, degrees, from -5 to 90", "")
+	pf.site = addSiteFlags(e, f)
+	pf.tz = f.value("tz", "ZONE", "UTC", "IANA time zone of the local times with --lat/--lon (Europe/Berlin); a --site has its own", "")
+	pf.minAlt = f.value("min-alt", "DEG", fmt.Sprint(planMinAltDeg), "lowest useful airless altitude of a star, degrees, from -5 to 90; with --site, the site's own unless given", "")
 	pf.sunAlt = f.value("sun-alt", "DEG", fmt.Sprint(def.SunAltDeg), "the Sun must be below this airless altitude, degrees, from -30 to 10 (-12 is nautical twilight)", "")
 	pf.moonSep = f.value("moon-sep", "DEG", fmt.Sprint(def.MoonMinSepDeg), "while the Moon is up, a star must be at least this far from it, degrees, 0 (off) to 180", "")
 	pf.windowFraction = f.value("window-fraction", "F", fmt.Sprint(def.WindowFraction), "half-width of the coverage window around an extremum, as a fraction of the period, above 0 and at most 0.5", "")
@@ -247,7 +250,16 @@ func (pf *plannerFlags) planner(f *flags, keepAll bool) (*observe.Planner, obser
 		return nil, observer{}, err
 	}
 	c.WindowMaxDays = hours / 24
-	site, err := observe.NewSite(obs.site.Name, obs.site.LatDeg, obs.site.LonDeg, obs.site.ElevM, zoneName(obs.zone), minAlt, nil)
+	// A named site keeps its lowest altitude (unless --min-alt says
+	// otherwise) and its horizon profile.
+	var horizon observe.Horizon
+	if obs.place != nil {
+		horizon = obs.place.Horizon
+		if !f.given("min-alt") {
+			minAlt = obs.place.MinAltDeg
+		}
+	}
+	site, err := observe.NewSite(obs.site.Name, obs.site.LatDeg, obs.site.LonDeg, obs.site.ElevM, zoneName(obs.zone), minAlt, horizon)
 	if err != nil {
 		return nil, observer{}, &flagError{flag: "min-alt", err: err}
 	}
@@ -291,7 +303,15 @@ func parseWindowHours(s string) (float64, error) {
 // readTargets reads the target catalogue named by --targets: a VOTable for
 // .vot and .xml, else CSV. Faults in the file come with its name, line and
 // column (or FIELD); a file that cannot be read is a fault of the flag.
+// Without --targets the targets are the logbook's. The name returned says
+// where they come from, for messages and headings.
 func (pf *plannerFlags) readTargets(f *flags) ([]observe.Target, string, error) {
+	if !f.given("targets") {
+		if f.given("votable-timescale") {
+			return nil, "", &flagError{flag: "votable-timescale", err: fmt.Errorf("applies to a --targets VOTable file (.vot, .xml) only: the logbook's targets carry their time scales")}
+		}
+		return logbookTargets(pf.site.book)
+	}
 	path, err := get(f, "targets", *pf.targets, nonEmpty("a file name"))
 	if err != nil {
 		return nil, "", err
@@ -321,6 +341,23 @@ func (pf *plannerFlags) readTargets(f *flags) ([]observe.Target, string, error) 
 		return nil, "", fmt.Errorf("%s: no targets in the file: want one row per target under the header", path)
 	}
 	return ts, path, nil
+}
+
+// logbookTargets returns the targets of the logbook, each with its current
+// ephemeris, and "the logbook PATH" for messages.
+func logbookTargets(book *bookFlag) ([]observe.Target, string, error) {
+	lb, err := book.open()
+	if err != nil {
+		return nil, "", err
+	}
+	ts, err := lb.Targets()
+	if err != nil {
+		return nil, "", fmt.Errorf("reading the targets of the logbook %q: %w", lb.Path(), err)
+	}
+	if len(ts) == 0 {
+		return nil, "", &flagError{flag: "logbook", err: fmt.Errorf("the logbook %q holds no targets: import some (vigil logbook import --table targets --input FILE) or give --targets FILE", lb.Path())}
+	}
+	return ts, "the logbook " + lb.Path(), nil
 }
 
 // isVOTable says whether a file name is read as a VOTable.

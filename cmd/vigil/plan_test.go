@@ -383,7 +383,6 @@ func TestPlanBadInput(t *testing.T) {
 		args []string
 		want []string
 	}{
-		{"missing --targets", plan(), []string{"vigil plan: ", "--targets", "missing", "required"}},
 		{"unreadable file", plan("--targets", missing), []string{"--targets", strconv.Quote(missing), "no such file"}},
 		{"a directory", plan("--targets", t.TempDir()), []string{"--targets", "is a directory"}},
 		{"bad row", plan("--targets", badRow), []string{badRow + ": line 4, column 9 (ra)", `"25:00:00"`, "[0, 24)"}},

@@ -83,7 +83,7 @@ const (
 
 func runPredict(e *env, args []string) error {
 	f := newFlags(e.cmd,
-		"--ra HOURS --dec DEG --lat DEG --lon DEG [--elev METRES] --epoch JD --period DAYS [--timescale hjd|bjd] [--kind max|min] [--secondary] --from INSTANT --to INSTANT [--min-alt DEG] [--sun-alt DEG] [--json]",
+		"--ra HOURS --dec DEG (--lat DEG --lon DEG [--elev METRES] | --site NAME [--logbook PATH]) --epoch JD --period DAYS [--timescale hjd|bjd] [--kind max|min] [--secondary] --from INSTANT --to INSTANT [--min-alt DEG] [--sun-alt DEG] [--json]",
 		`The maxima or minima of one star that are seen at a site from --from to
 --to: every extremum T(E) = T0 + P·E + Q·E² (Sterken 2005, ASP Conf. Ser.
 335, 3) whose instant at the telescope lies in [from, to) (an event exactly at
@@ -104,7 +104,7 @@ timescale, kind, secondary, min_alt_deg, sun_alt_limit_deg, n, n_observable.`)
 	decText := f.required("dec", "DEG", "declination in degrees, ICRS/J2000, decimal (58.415) or sexagesimal (+58:24:54.71)")
 	pmRAText := f.value("pm-ra", "MAS/YR", "0", "proper motion in right ascension, μα cos δ, milliarcseconds per year", "")
 	pmDecText := f.value("pm-dec", "MAS/YR", "0", "proper motion in declination, milliarcseconds per year", "")
-	site := addSiteFlags(f)
+	site := addSiteFlags(e, f)
 	epochText := f.required("epoch", "JD", "T0, the epoch of one extremum: a full Julian date on --timescale (2436075.445)")
 	periodText := f.required("period", "DAYS", "P, the period in days (5.366341)")
 	qText := f.value("q", "DAYS", "0", "Q, the quadratic term of T(E) = T0 + P·E + Q·E², days", "")

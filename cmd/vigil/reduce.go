@@ -71,7 +71,7 @@ type reduceCheck struct {
 
 func runReduce(e *env, args []string) error {
 	f := newFlags(e.cmd,
-		"--input FILE --comp ID=MAG [--comp ID=MAG ...] [--check ID=MAG] --ra HOURS --dec DEG [--lat DEG --lon DEG [--elev METRES] | --site NAME] [--filter NAME] [--json]",
+		"--input FILE --comp ID=MAG [--comp ID=MAG ...] [--check ID=MAG] --ra HOURS --dec DEG [--lat DEG --lon DEG [--elev METRES] | --site NAME [--logbook PATH]] [--filter NAME] [--json]",
 		`Differential photometry to calibrated magnitudes. FILE columns: jd_utc
 (mid-exposure, Julian date UTC), target, optional target_err, and for each
 comparison or check star a column named by its ID (instrumental magnitude)
@@ -91,7 +91,7 @@ apart). Magnitudes in mag, times in days.`)
 	checkText := f.value("check", "ID=MAG", "", "a check star, reduced like the target: its column ID and catalogue magnitude (mag)", "")
 	raText := f.required("ra", "HOURS", "the target's right ascension in hours, ICRS/J2000, decimal (22.486) or sexagesimal (22:29:10.265)")
 	decText := f.required("dec", "DEG", "the target's declination in degrees, ICRS/J2000, decimal (58.415) or sexagesimal (+58:24:54.71)")
-	site := addOptionalSiteFlags(f)
+	site := addOptionalSiteFlags(e, f)
 	filter := f.value("filter", "NAME", "", "reduce only the rows of this filter (column filter); without it every row must share one filter", "")
 	asJSON := f.toggle("json", "print one JSON object instead of a table")
 	if err := f.parse(args, e.stdout); err != nil {

@@ -42,13 +42,13 @@ type skyResponse struct {
 
 func runSky(e *env, args []string) error {
 	f := newFlags(e.cmd,
-		"--lat DEG --lon DEG [--elev METRES] --ra HOURS --dec DEG --at INSTANT [--json]",
+		"(--lat DEG --lon DEG [--elev METRES] | --site NAME [--logbook PATH]) --ra HOURS --dec DEG --at INSTANT [--json]",
 		`Where a star stands at one instant, seen from a site: airless and refracted
 altitude, azimuth from north through east, airmass (Pickering 2002; null when
 the star is below the apparent horizon), hour angle, HJD (UTC scale), BJD_TDB,
 the Sun's and Moon's altitudes, the Moon's separation and illuminated fraction.
 Refraction is Saemundsson's (1986) for 10 °C and 1010 hPa.`)
-	site := addSiteFlags(f)
+	site := addSiteFlags(e, f)
 	raText := f.required("ra", "HOURS", "right ascension in hours, ICRS/J2000, decimal (22.486) or sexagesimal (22:29:10.265)")
 	decText := f.required("dec", "DEG", "declination in degrees, ICRS/J2000, decimal (58.415) or sexagesimal (+58:24:54.71)")
 	atText := f.required("at", "INSTANT", "the instant: ISO 8601 UTC (2026-12-01T03:00:00Z), a Julian date on the UTC scale (JD2461375.625), or now")

@@ -177,14 +177,16 @@ func nonEmpty(what string) func(string) (string, error) {
 // addOptionalSiteFlags declares --lat, --lon, --elev and --site for a
 // command that works without a site (geocentric times then). It shares
 // siteFlags.resolve with the commands that need one.
-func addOptionalSiteFlags(f *flags) *siteFlags {
+func addOptionalSiteFlags(e *env, f *flags) *siteFlags {
 	const optionalNote = "optional: without a site, times are geocentric"
-	return &siteFlags{
+	s := &siteFlags{
 		lat:  f.value("lat", "DEG", "", "site latitude in degrees, north positive, decimal (52.1172) or sexagesimal (+52:07:02); give with --lon", optionalNote),
 		lon:  f.value("lon", "DEG", "", "site longitude in degrees, EAST positive (west of Greenwich is negative: -1.4538), decimal or sexagesimal; give with --lat", optionalNote),
 		elev: f.value("elev", "METRES", "0", "site elevation in metres above sea level", ""),
-		name: f.value("site", "NAME", "", fmt.Sprintf("a named site instead of --lat/--lon/--elev; until the logbook exists the only one is %q (or %q)", demoSiteName, demoSiteAlias), ""),
+		name: f.value("site", "NAME", "", siteNameUsage, ""),
 	}
+	s.book = addLogbookFlag(e, f)
+	return s
 }
 
 // resolveOptional returns the observer the site flags describe, or nil when
