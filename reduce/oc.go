@@ -223,3 +223,16 @@ func ocPText(p float64) string {
 	}
 	return fmt.Sprintf("p = %.3g", p)
 }
+
+// CycleOf returns the cycle number E of an extremum observed at Julian date jd
+// (on the ephemeris's time scale) and its O−C = jd − T(E) in days: E is the
+// nearest integer cycle, or for a secondary minimum the nearest half-integer
+// (Sterken 2005, ASP Conf. Ser. 335, 3).
+func CycleOf(eph ephem.Ephemeris, jd float64, secondary bool) (cycle, ocDays float64) {
+	if secondary {
+		cycle = math.Round(eph.Cycle(jd)-0.5) + 0.5
+	} else {
+		cycle = math.Round(eph.Cycle(jd))
+	}
+	return cycle, jd - eph.At(cycle)
+}

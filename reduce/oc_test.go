@@ -223,3 +223,26 @@ func TestOCThreeTimings(t *testing.T) {
 		t.Errorf("quadratic %v, preferred %q (%s): want none, linear, too few", a.Quadratic, a.Preferred, a.PreferredBy)
 	}
 }
+
+// TestCycleOf checks the cycle and O−C of single timings against an exact
+// linear ephemeris (methods.md §6: Max = 2436075.445 + 5.366341 E, δ Cep,
+// GCVS), primary and secondary.
+func TestCycleOf(t *testing.T) {
+	eph := ephem.Ephemeris{Epoch: 2436075.445, PeriodDays: 5.366341, Scale: ephem.HJD}
+	for _, tc := range []struct {
+		name      string
+		jd        float64
+		secondary bool
+		cycle, oc float64
+	}{
+		{"on the ephemeris, E = 4583 (methods.md §6)", 2436075.445 + 5.366341*4583, false, 4583, 0},
+		{"late by 0.01 d", 2436075.445 + 5.366341*4583 + 0.01, false, 4583, 0.01},
+		{"early by 0.2 P", 2436075.445 + 5.366341*(4583-0.2), false, 4583, -0.2 * 5.366341},
+		{"secondary at E + 0.5", 2436075.445 + 5.366341*4583.5 - 0.003, true, 4583.5, -0.003},
+	} {
+		c, oc := CycleOf(eph, tc.jd, tc.secondary)
+		if c != tc.cycle || math.Abs(oc-tc.oc) > 1e-6 {
+			t.Errorf("%s: CycleOf = %v, %.7f d; want %v, %.7f d", tc.name, c, oc, tc.cycle, tc.oc)
+		}
+	}
+}

@@ -13,6 +13,7 @@ import (
 	"vigil/ephem"
 	"vigil/observe"
 	"vigil/observe/logbook"
+	"vigil/reduce"
 )
 
 var logCommand = command{
@@ -205,13 +206,8 @@ func timingOC(tg observe.Target, t logbook.Timing) float64 {
 	if eph.Scale != t.Scale || tg.Kind != t.Kind || eph.PeriodDays <= 0 {
 		return math.NaN()
 	}
-	var cycle float64
-	if t.Secondary {
-		cycle = math.Round(eph.Cycle(t.JD)-0.5) + 0.5
-	} else {
-		cycle = math.Round(eph.Cycle(t.JD))
-	}
-	return t.JD - eph.At(cycle)
+	_, oc := reduce.CycleOf(eph, t.JD, t.Secondary)
+	return oc
 }
 
 // rawLabels joins the labels of comparison or check stars with "+".
