@@ -360,8 +360,9 @@ func TestLogbookRefused(t *testing.T) {
 	}
 }
 
-// TestTopLevelLogbook checks vigil --logbook PATH: tonight at the logbook's
-// first site, as vigil night reports it; and its errors.
+// TestTopLevelLogbook checks vigil tonight --logbook PATH: tonight at the
+// logbook's first site, as vigil night reports it; and the errors of the
+// top-level vigil --logbook PATH, which opens the window.
 func TestTopLevelLogbook(t *testing.T) {
 	withClock(t, time.Date(2026, 12, 1, 21, 0, 0, 0, time.UTC))
 	path := sharedDemo(t)
@@ -375,7 +376,7 @@ func TestTopLevelLogbook(t *testing.T) {
 	if !ok {
 		t.Fatal("no sunset")
 	}
-	for _, args := range [][]string{{"--logbook", path}, {"--logbook=" + path}, {"-logbook", path}} {
+	for _, args := range [][]string{{"tonight", "--logbook", path}, {"tonight", "--logbook=" + path}, {"tonight", "-logbook", path}} {
 		out := mustRun(t, args...)
 		for _, want := range []string{"Tonight at " + sites[0].Name, "Night of Tuesday 1 December 2026", "the first of the logbook's 2 sites",
 			path, sunset.Round(time.Second).Format("2006-01-02 15:04:05") + " UTC"} {
@@ -392,7 +393,7 @@ func TestTopLevelLogbook(t *testing.T) {
 		{[]string{"--logbook"}, []string{"--logbook", "needs PATH"}},
 		{[]string{"--logbook", ""}, []string{"--logbook", "empty"}},
 		{[]string{"--logbook", path, "sky"}, []string{"--logbook", `"sky"`, "after the command"}},
-		{[]string{"--logbook", notes}, []string{"--logbook", strconv.Quote(notes), "not a vigil logbook"}},
+		{[]string{"tonight", "--logbook", notes}, []string{"--logbook", strconv.Quote(notes), "not a vigil logbook"}},
 	} {
 		wantFailure(t, tc.args, vigil(tc.args...), tc.want...)
 	}

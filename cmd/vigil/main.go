@@ -1,7 +1,7 @@
 // Command vigil plans and reduces observations of variable stars. Without
-// arguments it will open the window; for now it prints tonight's sky for the
-// demo site. With a subcommand it answers on the command line, as fixed by the
-// command-line contract (flags, JSON fields, exit status):
+// arguments it opens the window on the default logbook (vigil --logbook PATH:
+// on that one). With a subcommand it answers on the command line, as fixed by
+// the command-line contract (flags, JSON fields, exit status):
 //
 //	vigil sky       where a star stands at one instant
 //	vigil night     the dark hours at a site
@@ -9,6 +9,7 @@
 //	vigil plan      the extrema of a list of targets over one night or several, ranked
 //	vigil chart     the altitude chart of one night, as PNG, SVG or PDF
 //	vigil log       the observing log of one night from the logbook, as PDF or plain text
+//	vigil tonight   tonight at a site in plain text: twilights, Moon, local time and UTC
 //	vigil reduce    differential photometry to calibrated magnitudes
 //	vigil period    period search by Lomb–Scargle or phase dispersion
 //	vigil extremum  the time of one maximum or minimum
@@ -37,8 +38,7 @@
 // plan and chart its lowest useful altitude and horizon profile. plan and
 // chart take the logbook's targets when --targets is not given; vigil log
 // takes them always, with the night's record (observer, measurements,
-// timings). vigil --logbook PATH shows tonight at the first site of that
-// logbook (the window will open on it).
+// timings). vigil tonight prints tonight at a site in plain text.
 //
 // This package only wires flags to the engine (vigil/ephem and the packages
 // above it) and prints: it computes nothing itself.
@@ -88,6 +88,7 @@ var commands = []command{
 	ocCommand,
 	distanceCommand,
 	logbookCommand,
+	tonightCommand,
 }
 
 // clock tells the time; tests replace it to pin "now" and "tonight".
@@ -113,14 +114,14 @@ func (e *env) atExit(close func(failed bool) error) { e.closes = append(e.closes
 func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	std := streams{stdin, stdout, stderr}
 	if len(args) == 0 {
-		return std.finish("vigil", tonight)
+		return openWindow("", stderr)
 	}
 	if path, ok, err := topLevelLogbook(args); ok || err != nil {
 		if err != nil {
 			fmt.Fprintf(stderr, "vigil: %s\n", oneLine(err.Error()))
 			return exitUsage
 		}
-		return std.finish("vigil", func(e *env) error { return tonightIn(e, path) })
+		return openWindow(path, stderr)
 	}
 	name := args[0]
 	switch name {
@@ -211,8 +212,8 @@ func writeHelp(w io.Writer) {
 	fmt.Fprint(w, `vigil plans and reduces observations of variable stars.
 
 Usage:
-  vigil                 tonight's sky at the demo site (the window will open here)
-  vigil --logbook PATH  tonight's sky at the first site of that logbook
+  vigil                 opens the window on the default logbook
+  vigil --logbook PATH  opens the window on that logbook
   vigil COMMAND [flags] answer on the command line
   vigil help COMMAND    the flags of one command (same as vigil COMMAND --help)
 

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"io"
 	"strings"
 	"testing"
 	"time"
@@ -173,11 +174,11 @@ func TestTonightDate(t *testing.T) {
 	}
 }
 
-// TestNoArguments checks what `vigil` prints for now: tonight's events at
-// the demo site in local time and UTC, the same as vigil night reports.
-func TestNoArguments(t *testing.T) {
+// TestTonight checks what `vigil tonight` prints: tonight's events at the
+// demo site in local time and UTC, the same as vigil night reports.
+func TestTonight(t *testing.T) {
 	withClock(t, time.Date(2026, 7, 1, 21, 0, 0, 0, time.UTC))
-	r := vigil()
+	r := vigil("tonight")
 	if r.code != exitOK || r.stderr != "" {
 		t.Fatalf("exit %d, stderr %q", r.code, r.stderr)
 	}
@@ -194,6 +195,33 @@ func TestNoArguments(t *testing.T) {
 	} {
 		if !strings.Contains(r.stdout, want) {
 			t.Errorf("output lacks %q:\n%s", want, r.stdout)
+		}
+	}
+}
+
+// TestNoArgumentsOpensWindow checks that `vigil` alone, and `vigil --logbook
+// PATH`, open the window (replaced here: tests have no display) on the
+// default logbook and on PATH, and print nothing themselves.
+func TestNoArgumentsOpensWindow(t *testing.T) {
+	var opened []string
+	saved := openWindow
+	openWindow = func(path string, stderr io.Writer) int { opened = append(opened, path); return exitOK }
+	t.Cleanup(func() { openWindow = saved })
+	for _, tc := range []struct {
+		args []string
+		want string
+	}{
+		{nil, ""},
+		{[]string{"--logbook", "/tmp/x.db"}, "/tmp/x.db"},
+		{[]string{"--logbook=/tmp/y.db"}, "/tmp/y.db"},
+	} {
+		opened = nil
+		r := vigil(tc.args...)
+		if r.code != exitOK || r.stdout != "" || r.stderr != "" {
+			t.Errorf("vigil %v: exit %d, stdout %q, stderr %q", tc.args, r.code, r.stdout, r.stderr)
+		}
+		if len(opened) != 1 || opened[0] != tc.want {
+			t.Errorf("vigil %v opened the window on %q, want once on %q", tc.args, opened, tc.want)
 		}
 	}
 }

@@ -7,17 +7,41 @@ import (
 	"vigil/ephem"
 )
 
-// tonight prints what `vigil` without arguments shows until the window
-// exists: tonight's events at the demo site, in local time and UTC, and where
-// the Moon stands now. It opens no logbook.
-func tonight(e *env) error {
+var tonightCommand = command{
+	name:    "tonight",
+	summary: "tonight at a glance in plain text: twilights, moonrise and moonset in local time and UTC, the Sun and Moon now",
+	run:     runTonight,
+}
+
+// runTonight prints tonight's events at a site (the demo site when none is
+// given, or the first site of the logbook given with --logbook alone), in
+// local time and UTC, and where the Sun and the Moon stand now.
+func runTonight(e *env, args []string) error {
+	f := newFlags(e.cmd, "[--site NAME | --lat DEG --lon DEG [--elev METRES]] [--logbook PATH]",
+		`Tonight at a glance: sunset, the three twilights, sunrise, moonrise and
+moonset in local time and UTC, how long it is dark, and where the Sun and the
+Moon stand now. Without a site: the demo site, or with --logbook alone the
+first site of that logbook. Times are local civil time when the site's time
+zone is known (a logbook site), else local mean time is not shown.`)
+	site := addSiteFlags(e, f)
+	if err := f.parse(args, e.stdout); err != nil {
+		return err
+	}
+	switch {
+	case f.given("site") || f.given("lat") || f.given("lon"):
+		obs, err := site.resolve(f)
+		if err != nil {
+			return err
+		}
+		return writeTonight(e, obs, "")
+	case f.given("logbook"):
+		return tonightIn(e, site.book)
+	}
 	return writeTonight(e, demoObserver(), "")
 }
 
-// tonightIn prints tonight at the first site of the logbook at path, as
-// `vigil --logbook PATH` does until it opens the window on that logbook.
-func tonightIn(e *env, path string) error {
-	book := &bookFlag{e: e, explicit: path}
+// tonightIn prints tonight at the first site of the logbook book names.
+func tonightIn(e *env, book *bookFlag) error {
 	lb, err := book.open()
 	if err != nil {
 		return err
@@ -50,7 +74,7 @@ func topLevelLogbook(args []string) (path string, ok bool, err error) {
 		value, rest = rest[0], rest[1:]
 	}
 	if len(rest) > 0 {
-		return "", false, fmt.Errorf("flag --logbook: %q follows it: alone, vigil --logbook PATH shows tonight at the logbook's first site; with a command, give --logbook after the command's name (vigil sky --logbook PATH ...)", rest[0])
+		return "", false, fmt.Errorf("flag --logbook: %q follows it: alone, vigil --logbook PATH opens the window on that logbook; with a command, give --logbook after the command's name (vigil sky --logbook PATH ...)", rest[0])
 	}
 	if strings.TrimSpace(value) == "" {
 		return "", false, fmt.Errorf("flag --logbook: empty value: want the path of a logbook file")
@@ -82,6 +106,6 @@ func writeTonight(e *env, obs observer, note string) error {
 	moon, sun := sky.Moon(), sky.Sun()
 	fmt.Fprintf(w, "\nNow, %s (%s): Sun at %.1f°, Moon at %.1f° altitude (azimuth %.0f°), %.0f%% illuminated.\n",
 		localText(at, obs.zone), utcText(at), sun.AltDeg, moon.AltDeg, moon.AzDeg, 100*sky.MoonIllumination())
-	fmt.Fprintf(w, "\nThe window will open here in a later version; `vigil help` lists the commands.\n")
+	fmt.Fprintf(w, "\n`vigil` alone opens the window; `vigil help` lists the commands.\n")
 	return nil
 }
