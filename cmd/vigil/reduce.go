@@ -3,6 +3,8 @@ package main
 import (
 	"fmt"
 	"io"
+	"os"
+	"path/filepath"
 	"strings"
 
 	"vigil/ephem"
@@ -93,11 +95,19 @@ apart). Magnitudes in mag, times in days.`)
 	decText := f.required("dec", "DEG", "the target's declination in degrees, ICRS/J2000, decimal (58.415) or sexagesimal (+58:24:54.71)")
 	site := addOptionalSiteFlags(e, f)
 	filter := f.value("filter", "NAME", "", "reduce only the rows of this filter (column filter); without it every row must share one filter", "")
+	outText := f.value("out", "FILE.csv", "", "also write the light curve as CSV (jd_utc, hjd_utc, bjd_tdb, mag, err, zero point, check star), whole or not at all", "")
 	asJSON := f.toggle("json", "print one JSON object instead of a table")
 	if err := f.parse(args, e.stdout); err != nil {
 		return err
 	}
 
+	out := ""
+	if f.given("out") {
+		var err error
+		if out, err = get(f, "out", *outText, csvOutPath); err != nil {
+			return err
+		}
+	}
 	path, err := get(f, "input", *input, nonEmpty("a file name"))
 	if err != nil {
 		return err
@@ -158,6 +168,11 @@ apart). Magnitudes in mag, times in days.`)
 		return fileError(path, reduceNothing(red))
 	}
 	resp := reduceAnswer(red, obs == nil)
+	if out != "" {
+		if err := red.WriteCSV(out); err != nil {
+			return &flagError{flag: "out", err: err}
+		}
+	}
 	if *asJSON {
 		return writeJSON(e.stdout, resp)
 	}
@@ -275,4 +290,17 @@ func comparisonWord(row reduceRow) string {
 		return fmt.Sprintf("%d weighted", row.NComps)
 	}
 	return fmt.Sprintf("%d equal", row.NComps)
+}
+
+// csvOutPath checks a --out path for a CSV file: it must end in .csv and its
+// directory must exist, so that a run fails before any work is done.
+func csvOutPath(s string) (string, error) {
+	p := strings.TrimSpace(s)
+	if !strings.EqualFold(filepath.Ext(p), ".csv") {
+		return "", fmt.Errorf("%q: want a file name ending in .csv", s)
+	}
+	if st, err := os.Stat(filepath.Dir(p)); err != nil || !st.IsDir() {
+		return "", fmt.Errorf("%q: the folder %q does not exist", s, filepath.Dir(p))
+	}
+	return p, nil
 }

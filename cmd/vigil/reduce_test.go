@@ -4,6 +4,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -218,4 +219,57 @@ func FuzzReduce(f *testing.F) {
 		}
 		checkOutcome(t, args, vigil(args...))
 	})
+}
+
+// TestReduceOut checks --out: the light curve as CSV, one row per reduced
+// exposure with the same magnitudes and times as the JSON answer, and a bad
+// path refused before any work, naming --out, with nothing written.
+func TestReduceOut(t *testing.T) {
+	dir := t.TempDir()
+	out := filepath.Join(dir, "lc.csv")
+	args := append(append([]string{}, reduceEnsemble...), "--out", out)
+	m := mustJSON(t, args...)
+	b, err := os.ReadFile(out)
+	if err != nil {
+		t.Fatal(err)
+	}
+	lines := strings.Split(strings.TrimSpace(string(b)), "\n")
+	rows := list(t, m, "rows")
+	if len(lines) != len(rows)+1 {
+		t.Fatalf("CSV has %d lines, want a header and %d rows:\n%s", len(lines), len(rows), b)
+	}
+	header := strings.Split(lines[0], ",")
+	col := func(name string) int {
+		for i, h := range header {
+			if h == name {
+				return i
+			}
+		}
+		t.Fatalf("CSV header %q lacks %q", lines[0], name)
+		return -1
+	}
+	for i, row := range rows {
+		cells := strings.Split(lines[i+1], ",")
+		// The CSV rounds magnitudes to 1e-5 mag and Julian dates to 1e-8 d
+		// (0.9 ms): half a unit of the last place is the tolerance.
+		for _, c := range []struct {
+			csv, json string
+			tol       float64
+		}{{"mag", "mag", 5e-6}, {"bjd_tdb", "bjd_tdb", 5e-9}, {"hjd_utc", "hjd", 5e-9}} {
+			got, err := strconv.ParseFloat(cells[col(c.csv)], 64)
+			if err != nil || math.Abs(got-number(t, row, c.json)) > c.tol {
+				t.Errorf("row %d %s = %q, want the JSON's %v", i, c.csv, cells[col(c.csv)], number(t, row, c.json))
+			}
+		}
+	}
+	for _, bad := range []struct{ path, want string }{
+		{filepath.Join(dir, "lc.txt"), "ending in .csv"},
+		{filepath.Join(dir, "missing", "lc.csv"), "does not exist"},
+	} {
+		args := append(append([]string{}, reduceEnsemble...), "--out", bad.path)
+		wantFailure(t, args, vigil(args...), "--out", bad.want)
+		if _, err := os.Stat(bad.path); err == nil {
+			t.Errorf("a failed run wrote %s", bad.path)
+		}
+	}
 }
