@@ -59,5 +59,6 @@ type Screen struct {
 func Screens() []Screen {
 	return []Screen{
 		{Name: "tonight", Title: "Tonight", Icon: theme.CalendarIcon(), New: newTonightPage},
+		{Name: "measure", Title: "Measurements", Icon: theme.DocumentCreateIcon(), New: newMeasurePage},
 	}
 }

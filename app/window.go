@@ -54,6 +54,8 @@ type Window struct {
 	status *statusBar
 	tabs   *container.AppTabs
 	pages  []Page
+	// themed marks the pages shown in the current theme (see rethemeShown).
+	themed map[int]bool
 }
 
 // New builds the window on the open logbook lb (the caller opens it, e.g.
@@ -149,6 +151,7 @@ func (w *Window) ShowPage(name string) {
 
 // pageShown tells the page brought to the front, when it wants to know.
 func (w *Window) pageShown() {
+	w.rethemeShown()
 	i := w.tabs.SelectedIndex()
 	if i >= 0 && i < len(w.pages) {
 		if s, ok := w.pages[i].(interface{ Shown() }); ok {
@@ -164,7 +167,25 @@ func (w *Window) applyTheme(c Change) {
 		for _, cv := range w.charts {
 			cv.Rebuild()
 		}
+		w.themed = nil
+		if w.tabs != nil {
+			w.themed = map[int]bool{w.tabs.SelectedIndex(): true}
+		}
 	}
+}
+
+// rethemeShown gives the page brought to the front the current theme when
+// it was hidden while the theme changed: Fyne re-themes only the widgets on
+// show, so a hidden page's table dividers and select arrows would keep the
+// old theme's colours (grey lines in night red). Applying the theme again
+// re-themes the page now on show.
+func (w *Window) rethemeShown() {
+	i := w.tabs.SelectedIndex()
+	if w.themed == nil || w.themed[i] {
+		return
+	}
+	w.themed[i] = true
+	w.App.Settings().SetTheme(NewTheme(w.Session.Theme()))
 }
 
 // changed plans the night again when the site, the night or the list of
