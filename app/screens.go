@@ -60,5 +60,6 @@ func Screens() []Screen {
 	return []Screen{
 		{Name: "tonight", Title: "Tonight", Icon: theme.CalendarIcon(), New: newTonightPage},
 		{Name: "measure", Title: "Measurements", Icon: theme.DocumentCreateIcon(), New: newMeasurePage},
+		{Name: "timing", Title: "Timings", Icon: theme.HistoryIcon(), New: newTimingPage},
 	}
 }
