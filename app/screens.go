@@ -61,5 +61,6 @@ func Screens() []Screen {
 		{Name: "tonight", Title: "Tonight", Icon: theme.CalendarIcon(), New: newTonightPage},
 		{Name: "measure", Title: "Measurements", Icon: theme.DocumentCreateIcon(), New: newMeasurePage},
 		{Name: "timing", Title: "Timings", Icon: theme.HistoryIcon(), New: newTimingPage},
+		{Name: "log", Title: "Log", Icon: theme.DocumentPrintIcon(), New: newLogPage},
 	}
 }

@@ -143,3 +143,23 @@ func TestReadTargetsCSVBad(t *testing.T) {
 		})
 	}
 }
+
+// TestFindTarget checks the lookup of a target by name: exact first, then
+// the one equal ignoring case, and ambiguity and absence.
+func TestFindTarget(t *testing.T) {
+	ts := []Target{{Name: "Alder Var"}, {Name: "Cedar Ecl"}, {Name: "cedar ecl"}, {Name: "Fir Fast"}}
+	for _, tc := range []struct {
+		name string
+		want int
+	}{
+		{"Alder Var", 0},
+		{"alder var", 0},
+		{"cedar ecl", 2}, // exact wins over a case-folded match
+		{"CEDAR ECL", -2},
+		{"Elm", -1},
+	} {
+		if got := FindTarget(ts, tc.name); got != tc.want {
+			t.Errorf("FindTarget(%q) = %d, want %d", tc.name, got, tc.want)
+		}
+	}
+}

@@ -178,3 +178,21 @@ func (t *Target) eventKind(secondary bool) Kind {
 	}
 	return t.Kind
 }
+
+// FindTarget returns the index in targets of the target called name: the one
+// of exactly that name, or else the only one equal to it ignoring case; -1
+// when there is none, -2 when several differ from it only in case.
+func FindTarget(targets []Target, name string) int {
+	fold := -1
+	for i := range targets {
+		switch {
+		case targets[i].Name == name:
+			return i
+		case strings.EqualFold(targets[i].Name, name) && fold == -1:
+			fold = i
+		case strings.EqualFold(targets[i].Name, name):
+			fold = -2
+		}
+	}
+	return fold
+}

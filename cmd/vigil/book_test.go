@@ -419,7 +419,7 @@ func TestPlanFromLogbook(t *testing.T) {
 	n := 0
 	for _, night := range list(t, m, "nights") {
 		for _, ev := range list(t, night, "events") {
-			i := findTarget(targets, ev["target"].(string))
+			i := observe.FindTarget(targets, ev["target"].(string))
 			if i < 0 {
 				t.Errorf("event of %q: no such target in the logbook", ev["target"])
 				continue

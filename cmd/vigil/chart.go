@@ -191,7 +191,7 @@ func chooseTargets(f *flags, path string, targets []observe.Target, only string)
 		if name == "" {
 			return nil, &flagError{flag: "only", err: fmt.Errorf("%q: an empty name: want target names separated by commas", only)}
 		}
-		i := findTarget(targets, name)
+		i := observe.FindTarget(targets, name)
 		if i < 0 {
 			return nil, &flagError{flag: "only", err: fmt.Errorf("no target named %q in %s: want one of %s", name, path, targetNames(targets, 10))}
 		}
@@ -206,27 +206,6 @@ func chooseTargets(f *flags, path string, targets []observe.Target, only string)
 	return out, nil
 }
 
-// findTarget returns the index of the target called name: the exact name,
-// or the only one equal to it ignoring case; -1 when there is none.
-func findTarget(targets []observe.Target, name string) int {
-	fold := -1
-	for i, t := range targets {
-		if t.Name == name {
-			return i
-		}
-		if strings.EqualFold(t.Name, name) {
-			if fold >= 0 {
-				fold = -2 // ambiguous
-			} else if fold == -1 {
-				fold = i
-			}
-		}
-	}
-	if fold < 0 {
-		return -1
-	}
-	return fold
-}
 
 // targetNames lists up to n target names, quoted, for a message.
 func targetNames(targets []observe.Target, n int) string {

@@ -3,17 +3,14 @@ package main
 import (
 	"errors"
 	"fmt"
-	"math"
 	"os"
 	"path/filepath"
 	"strings"
 	"time"
 
 	"vigil/app/report"
-	"vigil/ephem"
 	"vigil/observe"
 	"vigil/observe/logbook"
-	"vigil/reduce"
 )
 
 var logCommand = command{
@@ -149,7 +146,9 @@ func runLog(e *env, args []string) error {
 		return fmt.Errorf("reading the night of %s at %q from the logbook %q: %w", resp.Date, site.Name, lb.Path(), err)
 	default:
 		resp.NightRecorded = true
-		addRecord(&rl, nl, targets, &resp)
+		c := rl.AddRecord(nl, targets)
+		resp.Observer = nl.Night.Observer
+		resp.Measurements, resp.Unreduced, resp.Timings, resp.OCGiven = c.Measurements, c.Unreduced, c.Timings, c.OCGiven
 	}
 
 	if err := rl.Validate(); err != nil {
@@ -165,59 +164,6 @@ func runLog(e *env, args []string) error {
 	return nil
 }
 
-// addRecord adds the logbook's record of the night to the log: the
-// observer, the reduced measurements and the timings with their O−C.
-func addRecord(rl *report.NightLog, nl logbook.NightLog, targets []observe.Target, resp *logResponse) {
-	rl.Observer = nl.Night.Observer
-	resp.Observer = nl.Night.Observer
-	for _, m := range nl.Measurements {
-		at, err := ephem.FromJDUTC(m.JDUTC)
-		if math.IsNaN(m.Mag) || err != nil {
-			resp.Unreduced++
-			continue
-		}
-		comp := rawLabels(m.Comps)
-		if comp == "" && m.Visual != "" {
-			comp = "visual: " + m.Visual
-		}
-		rl.Measurements = append(rl.Measurements, report.Measurement{Time: at, Target: m.Target, Band: m.Filter,
-			Mag: m.Mag, MagErr: m.MagErr, Comp: comp, Check: rawLabels(m.Checks)})
-	}
-	for _, t := range nl.Timings {
-		oc := math.NaN()
-		if i := findTarget(targets, t.Target); i >= 0 {
-			oc = timingOC(targets[i], t)
-		}
-		if !math.IsNaN(oc) {
-			resp.OCGiven++
-		}
-		rl.Timings = append(rl.Timings, report.Timing{Target: t.Target, Kind: t.Kind, Secondary: t.Secondary,
-			JD: t.JD, Scale: t.Scale, SigmaDays: t.SigmaDays, Method: t.Method, OCDays: oc})
-	}
-	resp.Measurements, resp.Timings = len(rl.Measurements), len(rl.Timings)
-}
-
-// timingOC returns the O−C of the timing against the target's current
-// ephemeris, t − T(E) with E the nearest cycle (the nearest half-integer for
-// a secondary minimum; Sterken 2005, ASP Conf. Ser. 335, 3), or NaN when the
-// two are on different time scales or mark different kinds of extremum.
-func timingOC(tg observe.Target, t logbook.Timing) float64 {
-	eph := tg.Ephemeris
-	if eph.Scale != t.Scale || tg.Kind != t.Kind || eph.PeriodDays <= 0 {
-		return math.NaN()
-	}
-	_, oc := reduce.CycleOf(eph, t.JD, t.Secondary)
-	return oc
-}
-
-// rawLabels joins the labels of comparison or check stars with "+".
-func rawLabels(ms []logbook.RawMag) string {
-	labels := make([]string, len(ms))
-	for i, m := range ms {
-		labels[i] = m.Label
-	}
-	return strings.Join(labels, "+")
-}
 
 // writeLogSummary says what vigil log wrote, for people.
 func writeLogSummary(e *env, r logResponse, which string) {

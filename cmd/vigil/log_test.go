@@ -9,6 +9,7 @@ import (
 	"testing"
 	"time"
 
+	"vigil/app/report"
 	"vigil/ephem"
 	"vigil/internal/demo"
 	"vigil/observe"
@@ -259,17 +260,17 @@ func TestTimingOC(t *testing.T) {
 			t.Fatalf("%s: reduce.OC: %v", tg.Name, err)
 		}
 		for i, tm := range same {
-			near(t, tg.Name+" timing "+ephemJD(tm.JD), timingOC(tg, tm), a.Rows[i].OCDays, ocTol, "d", "reduce.OC")
+			near(t, tg.Name+" timing "+ephemJD(tm.JD), report.TimingOC(tg, tm), a.Rows[i].OCDays, ocTol, "d", "reduce.OC")
 			checked++
 		}
 		other := same[0]
 		other.Scale = ephem.HJD + ephem.BJDTDB - other.Scale
-		if oc := timingOC(tg, other); !math.IsNaN(oc) {
+		if oc := report.TimingOC(tg, other); !math.IsNaN(oc) {
 			t.Errorf("%s: timing on %v against an ephemeris on %v: O−C %v, want NaN", tg.Name, other.Scale, tg.Ephemeris.Scale, oc)
 		}
 		other = same[0]
 		other.Kind = observe.Max + observe.Min - other.Kind
-		if oc := timingOC(tg, other); !math.IsNaN(oc) {
+		if oc := report.TimingOC(tg, other); !math.IsNaN(oc) {
 			t.Errorf("%s: a %v timing against an ephemeris of %v: O−C %v, want NaN", tg.Name, other.Kind, tg.Kind, oc)
 		}
 	}
