@@ -21,7 +21,6 @@ type LogRequest struct {
 	Paper report.Paper
 }
 
-
 // LogPreview is the observing log of one night as the Log page shows it:
 // the log itself (ready to write), its plain text, where the Sun caution
 // stands in that text, the size of its PDF, and the logbook's record of

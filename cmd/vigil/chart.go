@@ -206,7 +206,6 @@ func chooseTargets(f *flags, path string, targets []observe.Target, only string)
 	return out, nil
 }
 
-
 // targetNames lists up to n target names, quoted, for a message.
 func targetNames(targets []observe.Target, n int) string {
 	var names []string

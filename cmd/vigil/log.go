@@ -164,7 +164,6 @@ func runLog(e *env, args []string) error {
 	return nil
 }
 
-
 // writeLogSummary says what vigil log wrote, for people.
 func writeLogSummary(e *env, r logResponse, which string) {
 	w := e.stdout
