@@ -53,7 +53,7 @@ unit:
 
 # Nothing below app may import the GUI or plotting libraries.
 layering:
-	@deps=$$($(GO) list -deps vigil/ephem/... vigil/observe/... vigil/reduce/... vigil/internal/...) || exit 1; \
+	@deps=$$($(GO) list -deps example.org/vigil/ephem/... example.org/vigil/observe/... example.org/vigil/reduce/... example.org/vigil/internal/...) || exit 1; \
 	bad=$$(echo "$$deps" | grep -E 'fyne\.io|gonum\.org/v1/plot' || true); \
 	if [ -n "$$bad" ]; then echo "layering: ephem, observe, reduce and internal must not import:"; echo "$$bad"; exit 1; fi
 

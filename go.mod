@@ -1,4 +1,4 @@
-module vigil
+module example.org/vigil
 
 go 1.26.0
 

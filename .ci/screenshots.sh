@@ -67,6 +67,10 @@ rm -rf "$out"
 mkdir -p "$out"
 out_abs=$(cd "$out" && pwd)
 echo "screenshots: $bin --logbook $tmp/demo.db (DISPLAY=$DISPLAY)"
+# The pages show the demo's Algol-like star on a night it was observed (its
+# O−C parabola, a fitted minimum); override with VIGIL_SHOTS_STAR/DATE.
+: "${VIGIL_SHOTS_STAR:=Ashgrove V4}" "${VIGIL_SHOTS_DATE:=2026-11-05}"
+export VIGIL_SHOTS_STAR VIGIL_SHOTS_DATE
 if ! VIGIL_SHOTS="$out_abs" VIGIL_SHOTS_GRAB="import -window vigil" \
 	timeout 300 "$bin" --logbook "$tmp/demo.db" </dev/null >"$tmp/run.log" 2>&1; then
 	cat "$tmp/run.log" >&2

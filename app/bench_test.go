@@ -12,9 +12,9 @@ import (
 	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/test"
 
-	"vigil/internal/demo"
-	"vigil/observe"
-	"vigil/observe/logbook"
+	"example.org/vigil/internal/demo"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
 )
 
 // benchDir holds the logbooks the benchmarks share (made once: the demo

@@ -18,7 +18,7 @@ import (
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
 
-	"vigil/app/chart"
+	"example.org/vigil/app/chart"
 )
 
 // Drawable is what a chart view shows: a *plot.Plot or chart.Panels.

@@ -11,7 +11,7 @@ import (
 	"fyne.io/fyne/v2/test"
 	"gonum.org/v1/plot"
 
-	"vigil/app/chart"
+	"example.org/vigil/app/chart"
 )
 
 // lineSource draws a plain plot of y = x over [0, 10] and counts its builds.

@@ -5,7 +5,7 @@ import (
 	"math"
 	"time"
 
-	"vigil/observe"
+	"example.org/vigil/observe"
 )
 
 // clockText writes an instant as clock time "15:04" in loc, to the nearest

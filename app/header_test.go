@@ -7,7 +7,7 @@ import (
 
 	"fyne.io/fyne/v2"
 
-	"vigil/internal/demo"
+	"example.org/vigil/internal/demo"
 )
 
 func TestMoonSummary(t *testing.T) {

@@ -8,10 +8,10 @@ import (
 	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/test"
 
-	"vigil/ephem"
-	"vigil/internal/demo"
-	"vigil/observe"
-	"vigil/observe/logbook"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/demo"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
 )
 
 // testNow is the pinned clock of the view tests: 1 December 2026, 18:00

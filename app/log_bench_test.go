@@ -8,8 +8,8 @@ import (
 	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/test"
 
-	"vigil/internal/demo"
-	"vigil/observe/logbook"
+	"example.org/vigil/internal/demo"
+	"example.org/vigil/observe/logbook"
 )
 
 // BenchmarkLogNextNight200 measures one step to the next night with 200

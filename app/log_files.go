@@ -9,7 +9,7 @@ import (
 	"strings"
 	"time"
 
-	"vigil/app/report"
+	"example.org/vigil/app/report"
 )
 
 // logPagesRe finds the page count of a PDF: the /Count of its page tree

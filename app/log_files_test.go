@@ -10,8 +10,8 @@ import (
 	"strings"
 	"testing"
 
-	"vigil/app/report"
-	"vigil/internal/demo"
+	"example.org/vigil/app/report"
+	"example.org/vigil/internal/demo"
 )
 
 // The page count read from the page tree matches the page objects of the

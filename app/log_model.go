@@ -8,9 +8,9 @@ import (
 	"strings"
 	"time"
 
-	"vigil/app/report"
-	"vigil/observe"
-	"vigil/observe/logbook"
+	"example.org/vigil/app/report"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
 )
 
 // LogRequest is what the observing log of one night needs: the site, the

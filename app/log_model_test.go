@@ -12,11 +12,11 @@ import (
 	"testing"
 	"time"
 
-	"vigil/app/report"
-	"vigil/ephem"
-	"vigil/internal/demo"
-	"vigil/observe"
-	"vigil/observe/logbook"
+	"example.org/vigil/app/report"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/demo"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
 )
 
 // logTestDate is the night of the Log tests: 1–2 December 2026 (testNow).

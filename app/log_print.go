@@ -9,7 +9,7 @@ import (
 	"path/filepath"
 	"strings"
 
-	"vigil/app/report"
+	"example.org/vigil/app/report"
 )
 
 // ErrNoPrintCommand is the answer of LogPrinter.Print when neither lp nor

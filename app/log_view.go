@@ -9,9 +9,9 @@ import (
 	"fyne.io/fyne/v2/theme"
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/app/chart"
-	"vigil/app/report"
-	"vigil/observe"
+	"example.org/vigil/app/chart"
+	"example.org/vigil/app/report"
+	"example.org/vigil/observe"
 )
 
 // Log page texts that the tests look for.

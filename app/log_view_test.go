@@ -9,10 +9,10 @@ import (
 	"fyne.io/fyne/v2/test"
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/app/report"
-	"vigil/internal/demo"
-	"vigil/observe"
-	"vigil/observe/logbook"
+	"example.org/vigil/app/report"
+	"example.org/vigil/internal/demo"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
 )
 
 // logPage returns the window's Log page, brought to the front and ready.

@@ -6,10 +6,10 @@ import (
 	"math"
 	"strings"
 
-	"vigil/ephem"
-	"vigil/observe"
-	"vigil/observe/logbook"
-	"vigil/reduce"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
+	"example.org/vigil/reduce"
 )
 
 // MeasureScope says which measurements the charts and the check star's

@@ -10,9 +10,9 @@ import (
 	"gonum.org/v1/gonum/stat"
 	"gonum.org/v1/plot"
 
-	"vigil/app/chart"
-	"vigil/observe/logbook"
-	"vigil/reduce"
+	"example.org/vigil/app/chart"
+	"example.org/vigil/observe/logbook"
+	"example.org/vigil/reduce"
 )
 
 // measureBusiestNight returns the request of the demo night with the most

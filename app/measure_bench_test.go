@@ -4,8 +4,8 @@ import (
 	"context"
 	"testing"
 
-	"vigil/app/chart"
-	"vigil/internal/demo"
+	"example.org/vigil/app/chart"
+	"example.org/vigil/internal/demo"
 )
 
 // The Measurements page's work for the demo star with the most

@@ -5,9 +5,9 @@ import (
 	"fmt"
 	"math"
 
-	"vigil/app/chart"
-	"vigil/ephem"
-	"vigil/reduce"
+	"example.org/vigil/app/chart"
+	"example.org/vigil/ephem"
+	"example.org/vigil/reduce"
 )
 
 // The Measurements page's charts, built from an analysis (no fyne).

@@ -6,9 +6,9 @@ import (
 	"strings"
 	"time"
 
-	"vigil/observe"
-	"vigil/observe/logbook"
-	"vigil/reduce"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
+	"example.org/vigil/reduce"
 )
 
 // MeasureStarEntry is one star's instrumental magnitude and error as typed.

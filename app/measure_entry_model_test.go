@@ -7,11 +7,11 @@ import (
 	"testing"
 	"time"
 
-	"vigil/ephem"
-	"vigil/internal/demo"
-	"vigil/observe"
-	"vigil/observe/logbook"
-	"vigil/reduce"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/demo"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
+	"example.org/vigil/reduce"
 )
 
 // measureNight is the night of the model tests: 1–2 December 2026.

@@ -8,10 +8,10 @@ import (
 	"strings"
 	"time"
 
-	"vigil/ephem"
-	"vigil/observe"
-	"vigil/observe/logbook"
-	"vigil/reduce"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
+	"example.org/vigil/reduce"
 )
 
 // Reading a typed row's fields and reducing it (no fyne).

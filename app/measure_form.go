@@ -11,7 +11,7 @@ import (
 	"fyne.io/fyne/v2/theme"
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/observe"
+	"example.org/vigil/observe"
 )
 
 // measureKeyNew starts a new row of the entry grid (Ctrl+N).

@@ -11,9 +11,9 @@ import (
 	"strings"
 	"time"
 
-	"vigil/internal/table"
-	"vigil/observe/logbook"
-	"vigil/reduce"
+	"example.org/vigil/internal/table"
+	"example.org/vigil/observe/logbook"
+	"example.org/vigil/reduce"
 )
 
 // MeasureImport is a photometry file (CSV with a header row) opened for

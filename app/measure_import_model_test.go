@@ -8,10 +8,10 @@ import (
 	"strings"
 	"testing"
 
-	"vigil/internal/demo"
-	"vigil/internal/table"
-	"vigil/observe/logbook"
-	"vigil/reduce"
+	"example.org/vigil/internal/demo"
+	"example.org/vigil/internal/table"
+	"example.org/vigil/observe/logbook"
+	"example.org/vigil/reduce"
 )
 
 // measureCSV is a small photometry file with its own column names: three

@@ -7,7 +7,7 @@ import (
 	"strings"
 	"time"
 
-	"vigil/observe/logbook"
+	"example.org/vigil/observe/logbook"
 )
 
 // Storing an import, and saying what it would do (no fyne).

@@ -13,7 +13,7 @@ import (
 	"fyne.io/fyne/v2/theme"
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/reduce"
+	"example.org/vigil/reduce"
 )
 
 // The import of a photometry file with its column-mapping step: a dialog

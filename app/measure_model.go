@@ -7,8 +7,8 @@ import (
 	"strings"
 	"time"
 
-	"vigil/observe"
-	"vigil/observe/logbook"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
 )
 
 // MeasureRequest is what the Measurements page shows: a star, the site and

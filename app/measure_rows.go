@@ -11,7 +11,7 @@ import (
 	"fyne.io/fyne/v2/theme"
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/observe/logbook"
+	"example.org/vigil/observe/logbook"
 )
 
 // The night's rows in the table, adding and deleting them, and the charts

@@ -7,8 +7,8 @@ import (
 	"strings"
 	"time"
 
-	"vigil/ephem"
-	"vigil/observe"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
 )
 
 // The Measurements page's reading of typed times (no fyne: tested without

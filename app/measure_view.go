@@ -11,7 +11,7 @@ import (
 	"fyne.io/fyne/v2/theme"
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/observe/logbook"
+	"example.org/vigil/observe/logbook"
 )
 
 // The scope choices and the phase binning choices of the charts.

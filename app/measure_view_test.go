@@ -9,7 +9,7 @@ import (
 	"fyne.io/fyne/v2/test"
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/observe/logbook"
+	"example.org/vigil/observe/logbook"
 )
 
 // measurePage opens the window on a small logbook holding measureTestStar

@@ -6,8 +6,8 @@ import (
 	"strings"
 	"time"
 
-	"vigil/ephem"
-	"vigil/observe"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
 )
 
 // PlanRequest is what the plan of one night needs (Session.PlanRequest).

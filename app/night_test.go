@@ -7,9 +7,9 @@ import (
 	"testing"
 	"time"
 
-	"vigil/ephem"
-	"vigil/internal/demo"
-	"vigil/observe"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/demo"
+	"example.org/vigil/observe"
 )
 
 // Tolerances of the night's checks.

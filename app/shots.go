@@ -11,7 +11,7 @@ import (
 	"strings"
 	"time"
 
-	"vigil/internal/safefile"
+	"example.org/vigil/internal/safefile"
 )
 
 // The environment variables EnvOptions reads.
@@ -24,6 +24,10 @@ const (
 	ShotsGrabEnv = "VIGIL_SHOTS_GRAB"
 	// ThemeEnv names the theme to start with: light, dark or night-red.
 	ThemeEnv = "VIGIL_THEME"
+	// ShotsStarEnv and ShotsDateEnv choose the star and the night the
+	// capture mode shows (Options.ShotsStar, Options.ShotsDate).
+	ShotsStarEnv = "VIGIL_SHOTS_STAR"
+	ShotsDateEnv = "VIGIL_SHOTS_DATE"
 )
 
 // EnvOptions returns the options the environment asks for (ShotsEnv,
@@ -34,7 +38,8 @@ func EnvOptions() Options {
 	if err != nil {
 		fmt.Fprintf(os.Stderr, "vigil: %s: %v\n", ThemeEnv, err)
 	}
-	return Options{Theme: t, ShotsDir: os.Getenv(ShotsEnv), ShotsGrab: os.Getenv(ShotsGrabEnv)}
+	return Options{Theme: t, ShotsDir: os.Getenv(ShotsEnv), ShotsGrab: os.Getenv(ShotsGrabEnv),
+		ShotsStar: os.Getenv(ShotsStarEnv), ShotsDate: os.Getenv(ShotsDateEnv)}
 }
 
 // settleFrame is how long the capture mode lets the window paint after the
@@ -62,6 +67,17 @@ func (w *Window) capture(dir string) error {
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return err
 	}
+	if w.opt.ShotsDate != "" {
+		d, err := time.Parse("2006-01-02", w.opt.ShotsDate)
+		if err != nil {
+			return fmt.Errorf("%s %q: want a date YYYY-MM-DD", ShotsDateEnv, w.opt.ShotsDate)
+		}
+		w.onUI(func() { w.Session.SetDate(d) })
+	}
+	if w.opt.ShotsStar != "" {
+		w.onUI(func() { w.Session.Select(w.opt.ShotsStar) })
+	}
+	w.waitIdle()
 	start := w.Session.Theme()
 	defer w.onUI(func() { w.Session.SetTheme(start) })
 	var names []string

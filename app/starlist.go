@@ -10,7 +10,7 @@ import (
 	"fyne.io/fyne/v2/theme"
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/observe"
+	"example.org/vigil/observe"
 )
 
 // starList is the left column: a search box over the list of stars, each

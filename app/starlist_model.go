@@ -3,7 +3,7 @@ package app
 import (
 	"strings"
 
-	"vigil/observe"
+	"example.org/vigil/observe"
 )
 
 // StarRow is one row of the star list.

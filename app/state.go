@@ -5,8 +5,8 @@ import (
 	"strings"
 	"time"
 
-	"vigil/observe"
-	"vigil/observe/logbook"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
 )
 
 // Change is a set of things that changed in a Session. Listeners registered

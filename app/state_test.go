@@ -5,8 +5,8 @@ import (
 	"testing"
 	"time"
 
-	"vigil/internal/demo"
-	"vigil/observe"
+	"example.org/vigil/internal/demo"
+	"example.org/vigil/observe"
 )
 
 // The rule of Tonight: the night under way or coming is that of the local

@@ -10,7 +10,7 @@ import (
 	"fyne.io/fyne/v2/theme"
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/observe"
+	"example.org/vigil/observe"
 )
 
 // Sizes of the twilight strip (Fyne units).

@@ -6,7 +6,7 @@ import (
 	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/theme"
 
-	"vigil/app/chart"
+	"example.org/vigil/app/chart"
 )
 
 // appTheme is one of the window's looks over Fyne's default theme: the

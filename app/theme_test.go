@@ -8,7 +8,7 @@ import (
 	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/theme"
 
-	"vigil/app/chart"
+	"example.org/vigil/app/chart"
 )
 
 // nightMaxRed is the brightest red the night theme may show (of 255): the

@@ -6,8 +6,8 @@ import (
 	"math"
 	"time"
 
-	"vigil/ephem"
-	"vigil/observe"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
 )
 
 // Adopting a fitted ephemeris: the candidate from an O−C fit, the words of

@@ -8,8 +8,8 @@ import (
 
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/app/chart"
-	"vigil/reduce"
+	"example.org/vigil/app/chart"
+	"example.org/vigil/reduce"
 )
 
 // Fitting the extremum in a job, showing and keeping it, and drawing the

@@ -9,8 +9,8 @@ import (
 	"fyne.io/fyne/v2/container"
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/app/chart"
-	"vigil/reduce"
+	"example.org/vigil/app/chart"
+	"example.org/vigil/reduce"
 )
 
 // The choices of the fit's method and degree.

@@ -11,10 +11,10 @@ import (
 	"testing"
 	"time"
 
-	"vigil/ephem"
-	"vigil/internal/demo"
-	"vigil/observe/logbook"
-	"vigil/reduce"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/demo"
+	"example.org/vigil/observe/logbook"
+	"example.org/vigil/reduce"
 )
 
 // timingDemo makes the demo logbook in a temporary directory.

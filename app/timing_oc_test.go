@@ -7,10 +7,10 @@ import (
 	"testing"
 	"time"
 
-	"vigil/ephem"
-	"vigil/observe"
-	"vigil/observe/logbook"
-	"vigil/reduce"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
+	"example.org/vigil/reduce"
 )
 
 // The demo invents Ashgrove V4 with a period that grows, Q = 5×10⁻⁹ d

@@ -11,7 +11,7 @@ import (
 	"fyne.io/fyne/v2/theme"
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/app/chart"
+	"example.org/vigil/app/chart"
 )
 
 // timingWidths are the widths of the timings table's columns.

@@ -10,7 +10,7 @@ import (
 	"sync/atomic"
 	"testing"
 
-	"vigil/reduce"
+	"example.org/vigil/reduce"
 )
 
 // A search over the demo's measurements of a star finds the period of its

@@ -8,9 +8,9 @@ import (
 	"strconv"
 	"strings"
 
-	"vigil/ephem"
-	"vigil/observe"
-	"vigil/reduce"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
+	"example.org/vigil/reduce"
 )
 
 // TimingPeriodInput is what the period search's fields hold, as typed.

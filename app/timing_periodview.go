@@ -13,9 +13,9 @@ import (
 	"fyne.io/fyne/v2/theme"
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/app/chart"
-	"vigil/ephem"
-	"vigil/reduce"
+	"example.org/vigil/app/chart"
+	"example.org/vigil/ephem"
+	"example.org/vigil/reduce"
 )
 
 // The search's method choices.

@@ -6,9 +6,9 @@ import (
 	"strconv"
 	"strings"
 
-	"vigil/ephem"
-	"vigil/observe"
-	"vigil/observe/logbook"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
 )
 
 // TimingPublishedInput is what the form for a published timing holds, as

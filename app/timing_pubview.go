@@ -11,8 +11,8 @@ import (
 	"fyne.io/fyne/v2/theme"
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/ephem"
-	"vigil/observe/logbook"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe/logbook"
 )
 
 // The form for a published timing, in a dialog of the O−C tab, and the

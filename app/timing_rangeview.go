@@ -9,7 +9,7 @@ import (
 	"fyne.io/fyne/v2/widget"
 	"gonum.org/v1/plot"
 
-	"vigil/app/chart"
+	"example.org/vigil/app/chart"
 )
 
 // The range of a fit: picked by dragging across the light curve or typed

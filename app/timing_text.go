@@ -7,9 +7,9 @@ import (
 	"strings"
 	"time"
 
-	"vigil/ephem"
-	"vigil/observe"
-	"vigil/reduce"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
+	"example.org/vigil/reduce"
 )
 
 // The page's words for times, uncertainties and O−C, and the reading of

@@ -12,9 +12,9 @@ import (
 	"fyne.io/fyne/v2/dialog"
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/ephem"
-	"vigil/observe"
-	"vigil/observe/logbook"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
 )
 
 // timingView is the Timings page: for the selected star, the fit of an

@@ -8,8 +8,8 @@ import (
 	"fyne.io/fyne/v2/test"
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/observe/logbook"
-	"vigil/reduce"
+	"example.org/vigil/observe/logbook"
+	"example.org/vigil/reduce"
 )
 
 // timingPage returns the window's Timings page.

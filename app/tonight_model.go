@@ -7,7 +7,7 @@ import (
 	"strings"
 	"time"
 
-	"vigil/observe"
+	"example.org/vigil/observe"
 )
 
 // TonightColumns are the headings of the Tonight table.

@@ -8,9 +8,9 @@ import (
 	"testing"
 	"time"
 
-	"vigil/ephem"
-	"vigil/internal/demo"
-	"vigil/observe"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/demo"
+	"example.org/vigil/observe"
 )
 
 // event makes an extremum for the model tests at UTC hh:mm on 1 December

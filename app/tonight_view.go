@@ -11,8 +11,8 @@ import (
 	"fyne.io/fyne/v2/theme"
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/app/chart"
-	"vigil/observe"
+	"example.org/vigil/app/chart"
+	"example.org/vigil/observe"
 )
 
 // tonightWidths are the widths of the Tonight table's columns.

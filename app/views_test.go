@@ -12,10 +12,10 @@ import (
 	"fyne.io/fyne/v2/test"
 	"fyne.io/fyne/v2/widget"
 
-	"vigil/ephem"
-	"vigil/internal/demo"
-	"vigil/observe"
-	"vigil/observe/logbook"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/demo"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
 )
 
 func TestSelectionFollowsListAndTable(t *testing.T) {

@@ -8,8 +8,8 @@ import (
 	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/container"
 
-	"vigil/app/chart"
-	"vigil/observe/logbook"
+	"example.org/vigil/app/chart"
+	"example.org/vigil/observe/logbook"
 )
 
 // Options say how the window starts.
@@ -31,6 +31,11 @@ type Options struct {
 	// in capture mode, given the file as its last argument (see
 	// EnvOptions); otherwise the canvas's own Capture is used.
 	ShotsGrab string
+	// ShotsStar and ShotsDate, when set, choose the star selected and the
+	// night shown before the capture mode starts, so that the pages show a
+	// star with data (ShotsDate is a date YYYY-MM-DD).
+	ShotsStar string
+	ShotsDate string
 }
 
 // WindowTitle is the main window's title (a screen grabber finds the window

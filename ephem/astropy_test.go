@@ -22,7 +22,7 @@ import (
 	"testing"
 	"time"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // Tolerances, in physical units. The aims (what the models should reach) are

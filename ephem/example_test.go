@@ -5,7 +5,7 @@ import (
 	"math"
 	"time"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // Meeus 1998, Ex. 7.a, p. 61: the launch of Sputnik 1, 1957 October 4.81,

@@ -6,7 +6,7 @@ import (
 	"testing"
 	"time"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // benchCatalogue returns n invented targets spread uniformly over the sky,

@@ -5,7 +5,7 @@ import (
 	"math"
 	"time"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // Chart holds what an altitude chart of one night shows, as plain values

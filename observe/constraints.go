@@ -5,7 +5,7 @@ import (
 	"math"
 	"strings"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // Constraints say when a star counts as observable, beyond the site's own

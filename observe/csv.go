@@ -9,9 +9,9 @@ import (
 	"strconv"
 	"strings"
 
-	"vigil/ephem"
-	"vigil/internal/safefile"
-	"vigil/internal/table"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/safefile"
+	"example.org/vigil/internal/table"
 )
 
 // csvColumns are the catalogue's columns in the order WriteTargetsCSV

@@ -10,7 +10,7 @@ import (
 	"strings"
 	"testing"
 
-	"vigil/internal/table"
+	"example.org/vigil/internal/table"
 )
 
 func TestReadTargetsExample(t *testing.T) {

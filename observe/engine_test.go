@@ -5,7 +5,7 @@ import (
 	"testing"
 	"time"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // Tolerances of the planner (ephem.SkySpan) against ephem's full

@@ -5,8 +5,8 @@ import (
 	"strings"
 	"time"
 
-	"vigil/ephem"
-	"vigil/observe"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
 )
 
 // ExamplePredict lists the maxima of an invented star over a day and a half.

@@ -7,7 +7,7 @@ import (
 	"strings"
 	"testing"
 
-	"vigil/internal/table"
+	"example.org/vigil/internal/table"
 )
 
 // FuzzReadTargetsCSV feeds arbitrary text to the target importer: it must

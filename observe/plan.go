@@ -10,7 +10,7 @@ import (
 	"sync/atomic"
 	"time"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // Planner predicts and plans for one site under one set of constraints.

@@ -7,7 +7,7 @@ import (
 	"testing"
 	"time"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // TestForecastMatchesPredict: a forecast holds, night by night, exactly the

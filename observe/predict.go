@@ -5,7 +5,7 @@ import (
 	"math"
 	"time"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // Event is one predicted extremum of a target and how well it can be

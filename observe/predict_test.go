@@ -7,8 +7,8 @@ import (
 	"strings"
 	"testing"
 
-	"vigil/ephem"
-	"vigil/internal/table"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/table"
 )
 
 // Tolerances against astropy (testdata/predict/make_predict.py).

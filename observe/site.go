@@ -7,7 +7,7 @@ import (
 	"time"
 	_ "time/tzdata" // named time zones work where the system has no zone database
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // Site is an observing place: where it is (ephem.Site: name, latitude,

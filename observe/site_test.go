@@ -6,7 +6,7 @@ import (
 	"testing"
 	"time"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 func TestHorizonAltDeg(t *testing.T) {

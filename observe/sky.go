@@ -3,7 +3,7 @@ package observe
 import (
 	"math"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // skyTable is the planner's view of the sky over a span of days at one

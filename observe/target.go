@@ -5,7 +5,7 @@ import (
 	"math"
 	"strings"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // Class is the kind of variable star a target is.

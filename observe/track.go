@@ -3,7 +3,7 @@ package observe
 import (
 	"math"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // track is one target prepared against a sky table: the star ready for

@@ -10,7 +10,7 @@ import (
 	"strconv"
 	"strings"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // VOTableError is a fault at one place of a VOTable file.

@@ -6,7 +6,7 @@ import (
 	"strings"
 	"testing"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 func TestReadVOTableExample(t *testing.T) {

@@ -6,7 +6,7 @@ import (
 	"strings"
 	"sync/atomic"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // Reduce turns instrumental photometry into the target's standard

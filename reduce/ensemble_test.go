@@ -8,8 +8,8 @@ import (
 	"strings"
 	"testing"
 
-	"vigil/ephem"
-	"vigil/internal/table"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/table"
 )
 
 // photoMagTol is the tolerance on magnitudes computed by the same formula

@@ -4,8 +4,8 @@ import (
 	"fmt"
 	"strings"
 
-	"vigil/ephem"
-	"vigil/reduce"
+	"example.org/vigil/ephem"
+	"example.org/vigil/reduce"
 )
 
 // The single-comparison check of methods.md §8 (extinction and colour

@@ -7,8 +7,8 @@ import (
 	"math"
 	"strings"
 
-	"vigil/ephem"
-	"vigil/internal/table"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/table"
 )
 
 // TimeFormat says how the time column of a photometry table is written.

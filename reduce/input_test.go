@@ -8,8 +8,8 @@ import (
 	"strings"
 	"testing"
 
-	"vigil/ephem"
-	"vigil/internal/table"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/table"
 )
 
 // writeTemp writes content to a file in a fresh temporary directory.

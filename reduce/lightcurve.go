@@ -9,8 +9,8 @@ import (
 	"sort"
 	"strconv"
 
-	"vigil/ephem"
-	"vigil/internal/safefile"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/safefile"
 )
 
 // PhasePoint is a light-curve point folded on an ephemeris: its phase in

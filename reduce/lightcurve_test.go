@@ -7,8 +7,8 @@ import (
 	"strings"
 	"testing"
 
-	"vigil/ephem"
-	"vigil/internal/table"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/table"
 )
 
 func TestPhaseFold(t *testing.T) {

@@ -8,7 +8,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/stat/distuv"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // ErrShortSpan is wrapped by the error LightTime returns when the timings

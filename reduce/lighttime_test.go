@@ -5,7 +5,7 @@ import (
 	"math"
 	"testing"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // ltEphemeris is the ephemeris of the light-time tables of

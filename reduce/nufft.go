@@ -9,7 +9,7 @@ import (
 	"math"
 	"sync"
 
-	"vigil/internal/nufft"
+	"example.org/vigil/internal/nufft"
 )
 
 func (d *periodData) spectralWindow(ctx context.Context, g FreqGrid) ([]float64, error) {

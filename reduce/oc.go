@@ -5,7 +5,7 @@ import (
 	"math"
 	"sort"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // OCOptions tunes OC.

@@ -6,7 +6,7 @@ import (
 	"strings"
 	"testing"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // ocMethods11 returns the synthetic timings of methods.md §11 [C]:

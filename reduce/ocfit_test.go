@@ -6,7 +6,7 @@ import (
 
 	"gonum.org/v1/gonum/stat/distuv"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 func TestOCFitMeeusQuadratic(t *testing.T) {

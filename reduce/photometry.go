@@ -7,7 +7,7 @@ import (
 	"strconv"
 	"strings"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // Comp is a comparison or check star: the ID that names its column in the

@@ -5,7 +5,7 @@ import (
 	"strings"
 	"testing"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 func TestParseComp(t *testing.T) {

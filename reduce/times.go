@@ -5,7 +5,7 @@ import (
 	"runtime"
 	"sync"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // ConvertTimes returns, for each instant of jdUTC (Julian dates on the UTC

@@ -6,8 +6,8 @@ import (
 	"path/filepath"
 	"testing"
 
-	"vigil/ephem"
-	"vigil/internal/table"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/table"
 )
 
 const secondsPerDay = 86400

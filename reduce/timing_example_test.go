@@ -4,8 +4,8 @@ import (
 	"fmt"
 	"math"
 
-	"vigil/ephem"
-	"vigil/reduce"
+	"example.org/vigil/ephem"
+	"example.org/vigil/reduce"
 )
 
 // The synthetic eclipse of methods.md §10 (true minimum JD 2460000.4321),

@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"math"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // Transform holds the two optional corrections of standard differential

@@ -4,7 +4,7 @@ import (
 	"math"
 	"testing"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // TestTransformWorkedExample reproduces the single-comparison check of

@@ -19,9 +19,9 @@ import (
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
 
-	"vigil/ephem"
-	"vigil/internal/safefile"
-	"vigil/observe"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/safefile"
+	"example.org/vigil/observe"
 )
 
 // Altitude draws the altitude chart of one night: altitude (airless,

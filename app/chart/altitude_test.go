@@ -21,8 +21,8 @@ import (
 	"gonum.org/v1/plot/vg/recorder"
 	"gonum.org/v1/plot/vg/vgimg"
 
-	"vigil/ephem"
-	"vigil/observe"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
 )
 
 var outDir = flag.String("outdir", "", "also write the demo charts (PNG, both palettes, and a greyscale copy) to this directory")

@@ -19,8 +19,8 @@ import (
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
 
-	"vigil/ephem"
-	"vigil/reduce"
+	"example.org/vigil/ephem"
+	"example.org/vigil/reduce"
 )
 
 // The demo data of the measurement charts: invented stars, synthetic

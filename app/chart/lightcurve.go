@@ -10,8 +10,8 @@ import (
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 
-	"vigil/ephem"
-	"vigil/reduce"
+	"example.org/vigil/ephem"
+	"example.org/vigil/reduce"
 )
 
 // Series is one star's light curve on a chart.

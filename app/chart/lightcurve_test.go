@@ -8,8 +8,8 @@ import (
 
 	"gonum.org/v1/plot/plotter"
 
-	"vigil/ephem"
-	"vigil/reduce"
+	"example.org/vigil/ephem"
+	"example.org/vigil/reduce"
 )
 
 // jdTol is the tolerance on a drawn time, in the axis's unit (days or

@@ -9,7 +9,7 @@ import (
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 
-	"vigil/reduce"
+	"example.org/vigil/reduce"
 )
 
 // The fits an O−C residual panel can be taken against (OCData.Residuals).

@@ -14,8 +14,8 @@ import (
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
 
-	"vigil/ephem"
-	"vigil/reduce"
+	"example.org/vigil/ephem"
+	"example.org/vigil/reduce"
 )
 
 // ocTol is the tolerance on a drawn O−C (days): far below a pixel.

@@ -12,7 +12,7 @@ import (
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
 
-	"vigil/internal/safefile"
+	"example.org/vigil/internal/safefile"
 )
 
 // Panels is a column of plots drawn one above the other on one page (an

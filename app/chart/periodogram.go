@@ -12,7 +12,7 @@ import (
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 
-	"vigil/reduce"
+	"example.org/vigil/reduce"
 )
 
 // DefaultMarkedPeaks is how many peaks besides the best a periodogram

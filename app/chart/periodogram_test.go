@@ -9,7 +9,7 @@ import (
 
 	"gonum.org/v1/plot/plotter"
 
-	"vigil/reduce"
+	"example.org/vigil/reduce"
 )
 
 // The best frequency of the methods.md §12 series: methods.md §12 gives

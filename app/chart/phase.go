@@ -9,8 +9,8 @@ import (
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 
-	"vigil/ephem"
-	"vigil/reduce"
+	"example.org/vigil/ephem"
+	"example.org/vigil/reduce"
 )
 
 // The phase axis runs from PhaseFrom to PhaseTo: one cycle with a fifth

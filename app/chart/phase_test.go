@@ -5,7 +5,7 @@ import (
 	"strings"
 	"testing"
 
-	"vigil/reduce"
+	"example.org/vigil/reduce"
 )
 
 func TestRepeat(t *testing.T) {

@@ -8,7 +8,7 @@ import (
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 
-	"vigil/reduce"
+	"example.org/vigil/reduce"
 )
 
 // cleanPoints returns the points of a series with a time and a magnitude,

@@ -9,7 +9,7 @@ import (
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // edgeAxis is a second scale along the top or the right edge of the

@@ -7,7 +7,7 @@ import (
 
 	"gonum.org/v1/plot"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // timeAxis maps Julian dates to a chart's x axis: days since a round

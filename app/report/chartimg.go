@@ -13,8 +13,8 @@ import (
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
 
-	"vigil/app/chart"
-	"vigil/observe"
+	"example.org/vigil/app/chart"
+	"example.org/vigil/observe"
 )
 
 // chartDPI is the resolution of the chart in the PDF: 300 dots per inch,

@@ -5,8 +5,8 @@ import (
 	"sort"
 	"strings"
 
-	"vigil/ephem"
-	"vigil/observe"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
 )
 
 // layout checks the log and lays it out as blocks (see doc).

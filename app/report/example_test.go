@@ -6,8 +6,8 @@ import (
 	"strings"
 	"time"
 
-	"vigil/app/report"
-	"vigil/observe"
+	"example.org/vigil/app/report"
+	"example.org/vigil/observe"
 )
 
 // ExampleForNight plans a night, prints its log as text and shows the

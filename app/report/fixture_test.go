@@ -5,8 +5,8 @@ import (
 	"testing"
 	"time"
 
-	"vigil/ephem"
-	"vigil/observe"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
 )
 
 // The example catalogue of invented stars shared with observe's tests.

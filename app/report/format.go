@@ -6,8 +6,8 @@ import (
 	"strings"
 	"time"
 
-	"vigil/ephem"
-	"vigil/observe"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
 )
 
 // dash stands in a cell for a value that does not exist or is not known.

@@ -7,8 +7,8 @@ import (
 	"strings"
 	"time"
 
-	"vigil/ephem"
-	"vigil/observe"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
 )
 
 // NightLog is everything the observing log of one night prints. ForNight

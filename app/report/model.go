@@ -1,6 +1,6 @@
 package report
 
-import "vigil/observe"
+import "example.org/vigil/observe"
 
 // doc is the log laid out once as a list of blocks, which the text and the
 // PDF writers both render, so that the two carry the same content.

@@ -8,7 +8,7 @@ import (
 	"testing"
 	"unicode/utf16"
 
-	"vigil/observe"
+	"example.org/vigil/observe"
 )
 
 // pdfPage matches a page object of the PDF (not the /Pages tree).

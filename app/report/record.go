@@ -4,10 +4,10 @@ import (
 	"math"
 	"strings"
 
-	"vigil/ephem"
-	"vigil/observe"
-	"vigil/observe/logbook"
-	"vigil/reduce"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
+	"example.org/vigil/reduce"
 )
 
 // RecordCounts says what AddRecord took from the logbook's record of a night,

@@ -6,7 +6,7 @@ import (
 	"strconv"
 	"time"
 
-	"vigil/observe"
+	"example.org/vigil/observe"
 )
 
 // eventTable lists the planned extrema in time order.

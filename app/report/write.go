@@ -6,7 +6,7 @@ import (
 	"path/filepath"
 	"strings"
 
-	"vigil/internal/safefile"
+	"example.org/vigil/internal/safefile"
 )
 
 // Write writes the log to path in the format its extension names: a PDF for

@@ -9,8 +9,8 @@ import (
 	"testing"
 	"time"
 
-	"vigil/ephem"
-	"vigil/observe"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
 )
 
 // TestWrite checks that the extension picks the format and that a bad one

@@ -7,9 +7,9 @@ import (
 	"strings"
 	"time"
 
-	"vigil/ephem"
-	"vigil/internal/demo"
-	"vigil/observe"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/demo"
+	"example.org/vigil/observe"
 )
 
 // This file holds the flags several commands share: the site (--lat --lon

@@ -9,9 +9,9 @@ import (
 	"strconv"
 	"strings"
 
-	"vigil/internal/demo"
-	"vigil/observe"
-	"vigil/observe/logbook"
+	"example.org/vigil/internal/demo"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
 )
 
 // This file holds --logbook, which every command that reads or writes

@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"math"
 	"os"
+	"os/exec"
 	"path/filepath"
 	"strconv"
 	"strings"
@@ -13,15 +14,19 @@ import (
 	"testing"
 	"time"
 
-	"vigil/internal/demo"
-	"vigil/observe"
-	"vigil/observe/logbook"
+	"example.org/vigil/internal/demo"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
 )
 
 // TestMain points the default logbook at a temporary directory, so that no
 // test reads or makes the user's own logbook: a command that names a site
 // without --logbook creates the demo there, as it would on a first run.
 func TestMain(m *testing.M) {
+	if os.Getenv(asMainEnv) == "1" {
+		// Run as the vigil command itself (TestNoStartupNoise).
+		os.Exit(run(os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
+	}
 	dir, err := os.MkdirTemp("", "vigil-cmd-test-")
 	if err != nil {
 		fmt.Fprintln(os.Stderr, "vigil tests: making a temporary directory:", err)
@@ -490,5 +495,30 @@ func TestPlanSiteHorizon(t *testing.T) {
 	low := mustJSON(t, args("--site", "demo", "--min-alt", "10")...)
 	if got := number(t, object(t, low, "site"), "min_alt_deg"); got != 10 {
 		t.Errorf("--min-alt 10 with --site: min_alt_deg = %v, want 10", got)
+	}
+}
+
+// asMainEnv makes the test binary run as the vigil command (see TestMain).
+const asMainEnv = "VIGIL_TEST_AS_MAIN"
+
+// TestNoStartupNoise runs the command as a separate process under the C and
+// POSIX locales, where Fyne's translation package logs a locale error while
+// it is initialised, and checks that a successful run writes nothing on
+// stderr (internal/quietlog silences it).
+func TestNoStartupNoise(t *testing.T) {
+	for _, locale := range []string{"C", "C.UTF-8", "POSIX"} {
+		cmd := exec.Command(os.Args[0], "distance", "--period", "5.366341", "--mean-mag", "3.94", "--json")
+		cmd.Env = append(os.Environ(), asMainEnv+"=1", "LANG="+locale, "LC_ALL=", "LANGUAGE=")
+		var stdout, stderr bytes.Buffer
+		cmd.Stdout, cmd.Stderr = &stdout, &stderr
+		if err := cmd.Run(); err != nil {
+			t.Fatalf("LANG=%s: %v, stderr %q", locale, err, stderr.String())
+		}
+		if stderr.Len() != 0 {
+			t.Errorf("LANG=%s: a successful run wrote on stderr: %q", locale, stderr.String())
+		}
+		if !strings.Contains(stdout.String(), `"distance_pc"`) {
+			t.Errorf("LANG=%s: stdout %q lacks the answer", locale, stdout.String())
+		}
 	}
 }

@@ -12,8 +12,8 @@ import (
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/vgimg"
 
-	"vigil/app/chart"
-	"vigil/observe"
+	"example.org/vigil/app/chart"
+	"example.org/vigil/observe"
 )
 
 var chartCommand = command{

@@ -1,7 +1,7 @@
 package main
 
 import (
-	"vigil/internal/demo"
+	"example.org/vigil/internal/demo"
 )
 
 // demoSiteAlias is a short name --site accepts for the demo's main

@@ -5,7 +5,7 @@ import (
 	"io"
 	"strings"
 
-	"vigil/reduce"
+	"example.org/vigil/reduce"
 )
 
 var distanceCommand = command{

@@ -7,8 +7,8 @@ import (
 	"math"
 	"strings"
 
-	csvtable "vigil/internal/table"
-	"vigil/reduce"
+	csvtable "example.org/vigil/internal/table"
+	"example.org/vigil/reduce"
 )
 
 var extremumCommand = command{

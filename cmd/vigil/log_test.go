@@ -9,12 +9,12 @@ import (
 	"testing"
 	"time"
 
-	"vigil/app/report"
-	"vigil/ephem"
-	"vigil/internal/demo"
-	"vigil/observe"
-	"vigil/observe/logbook"
-	"vigil/reduce"
+	"example.org/vigil/app/report"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/demo"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
+	"example.org/vigil/reduce"
 )
 
 // recordedNight returns the latest night of the demo's main site whose

@@ -7,7 +7,7 @@ import (
 	"os"
 	"path/filepath"
 
-	"vigil/observe/logbook"
+	"example.org/vigil/observe/logbook"
 )
 
 // backupResponse is the answer of vigil logbook backup with --json.

@@ -7,8 +7,8 @@ import (
 	"path/filepath"
 	"strings"
 
-	csvtable "vigil/internal/table"
-	"vigil/observe/logbook"
+	csvtable "example.org/vigil/internal/table"
+	"example.org/vigil/observe/logbook"
 )
 
 // csvFile is one CSV file exported or imported: its table, its path and the

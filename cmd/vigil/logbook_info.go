@@ -7,7 +7,7 @@ import (
 	"io"
 	"os"
 
-	"vigil/observe/logbook"
+	"example.org/vigil/observe/logbook"
 )
 
 // tableCount is the number of rows of one table of the file.

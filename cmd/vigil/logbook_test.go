@@ -8,7 +8,7 @@ import (
 	"strings"
 	"testing"
 
-	"vigil/observe/logbook"
+	"example.org/vigil/observe/logbook"
 )
 
 // readDir returns the files of a directory by name, with their contents.

@@ -52,6 +52,8 @@ import (
 	"os"
 	"strings"
 	"time"
+
+	_ "example.org/vigil/internal/quietlog" // before Fyne initialises: see the package
 )
 
 func main() {

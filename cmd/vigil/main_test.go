@@ -6,8 +6,8 @@ import (
 	"testing"
 	"time"
 
-	"vigil/ephem"
-	"vigil/internal/demo"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/demo"
 )
 
 // TestBadInput checks the contract for bad input (spec/cli.md,

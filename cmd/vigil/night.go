@@ -5,7 +5,7 @@ import (
 	"io"
 	"time"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 var nightCommand = command{

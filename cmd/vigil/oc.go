@@ -4,9 +4,9 @@ import (
 	"fmt"
 	"io"
 
-	"vigil/ephem"
-	csvtable "vigil/internal/table"
-	"vigil/reduce"
+	"example.org/vigil/ephem"
+	csvtable "example.org/vigil/internal/table"
+	"example.org/vigil/reduce"
 )
 
 var ocCommand = command{

@@ -9,7 +9,7 @@ import (
 	"text/tabwriter"
 	"time"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 // writeJSON prints v as one indented JSON object. The encoder builds the

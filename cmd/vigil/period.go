@@ -8,8 +8,8 @@ import (
 	"strconv"
 	"strings"
 
-	csvtable "vigil/internal/table"
-	"vigil/reduce"
+	csvtable "example.org/vigil/internal/table"
+	"example.org/vigil/reduce"
 )
 
 var periodCommand = command{

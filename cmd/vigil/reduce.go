@@ -7,8 +7,8 @@ import (
 	"path/filepath"
 	"strings"
 
-	"vigil/ephem"
-	"vigil/reduce"
+	"example.org/vigil/ephem"
+	"example.org/vigil/reduce"
 )
 
 var reduceCommand = command{

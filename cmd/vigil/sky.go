@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"io"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 var skyCommand = command{

@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"strings"
 
-	"vigil/ephem"
+	"example.org/vigil/ephem"
 )
 
 var tonightCommand = command{

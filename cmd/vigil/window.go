@@ -8,8 +8,9 @@ import (
 
 	fyneapp "fyne.io/fyne/v2/app"
 
-	"vigil/app"
-	"vigil/internal/demo"
+	"example.org/vigil/app"
+	"example.org/vigil/internal/demo"
+	"example.org/vigil/internal/quietlog"
 )
 
 // appID identifies vigil to the desktop (preferences, window grouping).
@@ -38,6 +39,7 @@ var openWindow = func(path string, stderr io.Writer) int {
 		return exitUsage
 	}
 	defer lb.Close()
+	quietlog.Restore()
 	app.New(fyneapp.NewWithID(appID), lb, app.EnvOptions()).ShowAndRun()
 	return exitOK
 }

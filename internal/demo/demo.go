@@ -9,9 +9,9 @@ import (
 	"sort"
 	"time"
 
-	"vigil/ephem"
-	"vigil/observe"
-	"vigil/observe/logbook"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
+	"example.org/vigil/observe/logbook"
 )
 
 // seed seeds the demo's noise: the same seed gives the same logbook.

@@ -5,7 +5,7 @@ import (
 	"os"
 	"path/filepath"
 
-	"vigil/internal/demo"
+	"example.org/vigil/internal/demo"
 )
 
 // The first run: a demo logbook of invented sites, stars and observations,

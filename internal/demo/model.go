@@ -3,7 +3,7 @@ package demo
 import (
 	"math"
 
-	"vigil/reduce"
+	"example.org/vigil/reduce"
 )
 
 // The demo's hidden truth: the light curves and extremum times of its

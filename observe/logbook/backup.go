@@ -13,7 +13,7 @@ import (
 	"strconv"
 	"strings"
 
-	"vigil/internal/safefile"
+	"example.org/vigil/internal/safefile"
 )
 
 // backupFormat is the "format" field of a JSON backup.

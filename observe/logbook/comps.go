@@ -2,9 +2,9 @@ package logbook
 
 import (
 	"database/sql"
+	"example.org/vigil/observe"
 	"fmt"
 	"math"
-	"vigil/observe"
 )
 
 // putComps replaces the target's comparison and check stars.

@@ -10,8 +10,8 @@ import (
 	"path/filepath"
 	"strings"
 
-	"vigil/internal/safefile"
-	"vigil/observe"
+	"example.org/vigil/internal/safefile"
+	"example.org/vigil/observe"
 )
 
 // Table names one of the logbook's CSV tables (see the package

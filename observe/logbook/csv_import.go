@@ -12,7 +12,7 @@ import (
 	"strings"
 	"time"
 
-	"vigil/internal/table"
+	"example.org/vigil/internal/table"
 )
 
 // maxImportBytes bounds one CSV file (a logbook table of a lifetime is far

@@ -3,13 +3,13 @@ package logbook
 import (
 	"bytes"
 	"database/sql"
+	"example.org/vigil/ephem"
+	"example.org/vigil/internal/table"
+	"example.org/vigil/observe"
 	"fmt"
 	"path/filepath"
 	"strings"
 	"time"
-	"vigil/ephem"
-	"vigil/internal/table"
-	"vigil/observe"
 )
 
 // The importers of each CSV table, inside the import's transaction.

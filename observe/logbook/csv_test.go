@@ -9,8 +9,8 @@ import (
 	"strings"
 	"testing"
 
-	"vigil/internal/table"
-	"vigil/observe"
+	"example.org/vigil/internal/table"
+	"example.org/vigil/observe"
 )
 
 // TestCSVRoundTrip exports every table of a demo logbook (fxDemo), imports

@@ -5,7 +5,7 @@ import (
 	"fmt"
 	"time"
 
-	"vigil/observe"
+	"example.org/vigil/observe"
 )
 
 // DemoRecords is a whole scenario to store as a demo logbook (CreateDemo):

@@ -9,8 +9,8 @@ import (
 	"strings"
 	"testing"
 
-	"vigil/ephem"
-	"vigil/observe"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
 )
 
 // TestCreateDemo checks that CreateDemo stores every record it is given,

@@ -2,10 +2,10 @@ package logbook
 
 import (
 	"database/sql"
+	"example.org/vigil/ephem"
 	"fmt"
 	"math"
 	"time"
-	"vigil/ephem"
 )
 
 // insertEphemeris adds an entry to the target's ephemeris history.

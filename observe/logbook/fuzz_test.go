@@ -6,7 +6,7 @@ import (
 	"fmt"
 	"testing"
 
-	"vigil/internal/table"
+	"example.org/vigil/internal/table"
 )
 
 // FuzzImportCSV feeds arbitrary bytes to the importer of every table (which

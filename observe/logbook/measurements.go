@@ -7,7 +7,7 @@ import (
 	"strings"
 	"time"
 
-	"vigil/observe"
+	"example.org/vigil/observe"
 )
 
 // resolver looks up sites, targets and nights by name inside one

@@ -7,8 +7,8 @@ import (
 	"time"
 	"unicode/utf8"
 
-	"vigil/ephem"
-	"vigil/observe"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
 )
 
 // Night is one observing night at a site: who observed, with what, under

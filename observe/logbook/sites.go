@@ -6,7 +6,7 @@ import (
 	"fmt"
 	"strings"
 
-	"vigil/observe"
+	"example.org/vigil/observe"
 )
 
 // AddSite stores a new observing site with its horizon profile and time

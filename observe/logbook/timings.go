@@ -5,8 +5,8 @@ import (
 	"errors"
 	"fmt"
 
-	"vigil/ephem"
-	"vigil/observe"
+	"example.org/vigil/ephem"
+	"example.org/vigil/observe"
 )
 
 // timingWriter inserts timings with a prepared statement.
