@@ -59,6 +59,7 @@ type Screen struct {
 func Screens() []Screen {
 	return []Screen{
 		{Name: "tonight", Title: "Tonight", Icon: theme.CalendarIcon(), New: newTonightPage},
+		{Name: "star", Title: "Star", Icon: theme.InfoIcon(), New: newStarPage},
 		{Name: "measure", Title: "Measurements", Icon: theme.DocumentCreateIcon(), New: newMeasurePage},
 		{Name: "timing", Title: "Timings", Icon: theme.HistoryIcon(), New: newTimingPage},
 		{Name: "log", Title: "Log", Icon: theme.DocumentPrintIcon(), New: newLogPage},
