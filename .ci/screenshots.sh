@@ -18,9 +18,9 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 
 out=${1:-shots}
-# night-red pixels may reach this red (of 255) inside charts: see
-# chartCompositeMaxRed in app/views_test.go; 200 elsewhere.
-max_red=210
+# the brightest red (of 255) a night-red pixel may have, charts included:
+# nightMaxRed in app/theme_test.go and app/chart/palette.go.
+max_red=200
 
 need=()
 command -v Xvfb >/dev/null || need+=(xvfb)

@@ -14,18 +14,18 @@ import (
 // twilight strip, the Moon, and the theme.
 type header struct {
 	w          *Window
-	site       *widget.Select
+	site       *keySelect
 	prev, next *widget.Button
 	date       *widget.Label
 	strip      *twilightStrip
 	moon       *widget.Label
-	theme      *widget.Select
+	theme      *keySelect
 	root       *fyne.Container
 }
 
 func newHeader(w *Window) *header {
 	h := &header{w: w}
-	h.site = widget.NewSelect(nil, func(name string) {
+	h.site = newKeySelect(w, nil, func(name string) {
 		if name != "" {
 			_ = w.Session.SetSite(name) // the options are the session's sites
 		}
@@ -40,7 +40,7 @@ func newHeader(w *Window) *header {
 	for _, t := range Themes {
 		names = append(names, t.String())
 	}
-	h.theme = widget.NewSelect(names, func(s string) {
+	h.theme = newKeySelect(w, names, func(s string) {
 		for _, t := range Themes {
 			if t.String() == s {
 				w.Session.SetTheme(t)

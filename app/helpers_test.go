@@ -1,7 +1,9 @@
 package app
 
 import (
+	"os"
 	"path/filepath"
+	"sync"
 	"testing"
 	"time"
 
@@ -104,6 +106,49 @@ func smallLogbook(t testing.TB) *logbook.Logbook {
 			t.Fatal(err)
 		}
 	}
+	return lb
+}
+
+// demoMaster is the demo logbook made once per test run (generating it
+// takes half a second), which demoLogbook copies for each test.
+var demoMaster struct {
+	once sync.Once
+	path string
+	err  error
+}
+
+// demoLogbook returns a fresh copy of the demo logbook (internal/demo) in
+// the test's temporary directory: the test may change it freely.
+func demoLogbook(t testing.TB) *logbook.Logbook {
+	t.Helper()
+	demoMaster.once.Do(func() {
+		benchDirOnce.Do(func() { benchDir, demoMaster.err = os.MkdirTemp("", "vigil-app-bench") })
+		if demoMaster.err != nil {
+			return
+		}
+		demoMaster.path = filepath.Join(benchDir, "demo-master.db")
+		lb, err := demo.Create(demoMaster.path)
+		if err == nil {
+			err = lb.Close() // a closed logbook has its log folded into the file
+		}
+		demoMaster.err = err
+	})
+	if demoMaster.err != nil {
+		t.Fatalf("the demo logbook: %v", demoMaster.err)
+	}
+	data, err := os.ReadFile(demoMaster.path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	path := filepath.Join(t.TempDir(), "demo.db")
+	if err := os.WriteFile(path, data, 0o600); err != nil {
+		t.Fatal(err)
+	}
+	lb, err := logbook.Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	t.Cleanup(func() { lb.Close() })
 	return lb
 }
 

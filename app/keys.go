@@ -7,32 +7,98 @@ import (
 )
 
 // The window's keys: the previous and next night (Alt+Left, Alt+Right, also
-// Page Up and Page Down), and Ctrl+F to find a star.
+// Page Up and Page Down), and Ctrl+F to find a star. Pages add theirs with
+// AddKey (Ctrl+N: a new measurement row; Ctrl+S: save the log).
 var (
 	keyPrevNight = &desktop.CustomShortcut{KeyName: fyne.KeyLeft, Modifier: fyne.KeyModifierAlt}
 	keyNextNight = &desktop.CustomShortcut{KeyName: fyne.KeyRight, Modifier: fyne.KeyModifierAlt}
 	keyFind      = &desktop.CustomShortcut{KeyName: fyne.KeyF, Modifier: fyne.KeyModifierShortcutDefault}
 )
 
-// bindKeys registers the window's shortcuts on its canvas.
-func (w *Window) bindKeys() {
-	c := w.Win.Canvas()
-	c.AddShortcut(keyPrevNight, func(fyne.Shortcut) { w.Session.PrevNight() })
-	c.AddShortcut(keyNextNight, func(fyne.Shortcut) { w.Session.NextNight() })
-	c.AddShortcut(keyFind, func(fyne.Shortcut) { c.Focus(w.stars.search) })
-	c.SetOnTypedKey(func(e *fyne.KeyEvent) { w.typedKey(e) })
+// KeyScope says from where a page's shortcut works.
+type KeyScope int
+
+const (
+	// KeyAnywhere works from every page: its page comes to the front
+	// first (Ctrl+N starts a measurement row from any page).
+	KeyAnywhere KeyScope = iota
+	// KeyOnFront works only while its page is in front, and there wins
+	// over a KeyAnywhere binding of the same key of another page.
+	KeyOnFront
+)
+
+// keyBinding is one shortcut of the registry.
+type keyBinding struct {
+	page  string // Screen.Name of the page; "" for the window's own keys
+	name  string // the shortcut's name (fyne.Shortcut.ShortcutName)
+	scope KeyScope
+	run   func()
 }
 
-// shortcut runs a window shortcut that a focused widget passed on; it
-// reports whether s was one.
+// AddKey registers run as the answer to the shortcut key for the page
+// called page (its Screen.Name). Fyne gives a shortcut to the widget that
+// has the keyboard, and a canvas holds one handler per key, so that a
+// page's key was lost while an entry of another page had the keyboard, or
+// replaced by another page's: the window keeps every binding here, hears
+// every shortcut (from the canvas, and from its entries, tables and lists,
+// which pass on what they do not use), and gives each to the page it
+// belongs to (keyShortcut).
+func (w *Window) AddKey(page string, key fyne.Shortcut, scope KeyScope, run func()) {
+	name := key.ShortcutName()
+	w.keys = append(w.keys, keyBinding{page: page, name: name, scope: scope, run: run})
+	w.Win.Canvas().AddShortcut(key, func(s fyne.Shortcut) { w.shortcut(s) })
+}
+
+// bindKeys registers the window's own shortcuts.
+func (w *Window) bindKeys() {
+	w.AddKey("", keyPrevNight, KeyAnywhere, w.Session.PrevNight)
+	w.AddKey("", keyNextNight, KeyAnywhere, w.Session.NextNight)
+	w.AddKey("", keyFind, KeyAnywhere, func() { w.Win.Canvas().Focus(w.stars.search) })
+	w.Win.Canvas().SetOnTypedKey(func(e *fyne.KeyEvent) { w.typedKey(e) })
+}
+
+// frontPage returns the Screen.Name of the page in front.
+func (w *Window) frontPage() string {
+	i := w.tabs.SelectedIndex()
+	if s := Screens(); i >= 0 && i < len(s) {
+		return s[i].Name
+	}
+	return ""
+}
+
+// dialogOpen reports whether a dialog or a pop-up is over the window: the
+// window's keys then wait, and the dialog's fields keep theirs.
+func (w *Window) dialogOpen() bool { return w.Win.Canvas().Overlays().Top() != nil }
+
+// shortcut runs the binding of shortcut s, and reports whether there was
+// one: the page in front's own, else the window's, else another page's
+// KeyAnywhere binding, bringing that page to the front first. Nothing runs
+// while a dialog is open.
 func (w *Window) shortcut(s fyne.Shortcut) bool {
-	switch s.ShortcutName() {
-	case keyPrevNight.ShortcutName():
-		w.Session.PrevNight()
-	case keyNextNight.ShortcutName():
-		w.Session.NextNight()
-	case keyFind.ShortcutName():
-		w.Win.Canvas().Focus(w.stars.search)
+	if s == nil || w.dialogOpen() {
+		return false
+	}
+	name, front := s.ShortcutName(), w.frontPage()
+	var window, other *keyBinding
+	for i := range w.keys {
+		b := &w.keys[i]
+		switch {
+		case b.name != name:
+		case b.page == front && b.page != "":
+			b.run()
+			return true
+		case b.page == "" && window == nil:
+			window = b
+		case b.scope == KeyAnywhere && other == nil:
+			other = b
+		}
+	}
+	switch {
+	case window != nil:
+		window.run()
+	case other != nil:
+		w.ShowPage(other.page)
+		other.run()
 	default:
 		return false
 	}
@@ -42,6 +108,9 @@ func (w *Window) shortcut(s fyne.Shortcut) bool {
 // typedKey handles the keys that no focused widget took: Page Up and Page
 // Down step through the nights.
 func (w *Window) typedKey(e *fyne.KeyEvent) bool {
+	if w.dialogOpen() {
+		return false
+	}
 	switch e.Name {
 	case fyne.KeyPageUp:
 		w.Session.PrevNight()
@@ -55,7 +124,9 @@ func (w *Window) typedKey(e *fyne.KeyEvent) bool {
 
 // keyEntry is an entry that passes the window's keys on to the window
 // (Fyne gives them to the focused widget only), so that the nights can be
-// stepped through while typing a search.
+// stepped through, a star found or a row started while typing anywhere.
+// Every entry of the pages is one. A multi-line entry keeps Page Up and
+// Page Down, which move through its text.
 type keyEntry struct {
 	widget.Entry
 	w *Window
@@ -64,6 +135,14 @@ type keyEntry struct {
 func newKeyEntry(w *Window) *keyEntry {
 	e := &keyEntry{w: w}
 	e.ExtendBaseWidget(e)
+	return e
+}
+
+// newKeyMultiLineEntry returns a multi-line keyEntry that wraps words.
+func newKeyMultiLineEntry(w *Window) *keyEntry {
+	e := newKeyEntry(w)
+	e.MultiLine = true
+	e.Wrapping = fyne.TextWrapWord
 	return e
 }
 
@@ -76,8 +155,35 @@ func (e *keyEntry) TypedShortcut(s fyne.Shortcut) {
 
 // TypedKey implements fyne.Focusable.
 func (e *keyEntry) TypedKey(k *fyne.KeyEvent) {
+	if e.MultiLine && (k.Name == fyne.KeyPageUp || k.Name == fyne.KeyPageDown) {
+		e.Entry.TypedKey(k)
+		return
+	}
 	if !e.w.typedKey(k) {
 		e.Entry.TypedKey(k)
+	}
+}
+
+// keySelect is a choice that passes Page Up and Page Down on to the window
+// when it has the keyboard (as it keeps it after a choice is made: the
+// site, then the next night).
+type keySelect struct {
+	widget.Select
+	w *Window
+}
+
+func newKeySelect(w *Window, options []string, changed func(string)) *keySelect {
+	s := &keySelect{w: w}
+	s.Options, s.OnChanged = options, changed
+	s.PlaceHolder = "(choose one)"
+	s.ExtendBaseWidget(s)
+	return s
+}
+
+// TypedKey implements fyne.Focusable.
+func (s *keySelect) TypedKey(k *fyne.KeyEvent) {
+	if !s.w.typedKey(k) {
+		s.Select.TypedKey(k)
 	}
 }
 

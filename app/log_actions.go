@@ -18,8 +18,8 @@ import (
 	"fyne.io/fyne/v2/widget"
 )
 
-// keySaveLog saves the observing log as a PDF (Ctrl+S) while the Log page
-// is in front.
+// keySaveLog saves the observing log as a PDF (Ctrl+S), from any page: the
+// Log page comes to the front.
 var keySaveLog = &desktop.CustomShortcut{KeyName: fyne.KeyS, Modifier: fyne.KeyModifierShortcutDefault}
 
 // logNotice is a message the Log page showed in a dialog.
@@ -28,12 +28,18 @@ type logNotice struct{ Title, Text string }
 // logDialog is the part of a Fyne dialog the page keeps.
 type logDialog interface{ Hide() }
 
-// saveShortcut answers Ctrl+S: the PDF's save dialog, when the Log page is
-// in front and its log is ready.
+// saveShortcut answers Ctrl+S (the window has brought the page to the
+// front): the PDF's save dialog, at once when the log is ready, else as
+// soon as it is.
 func (v *logView) saveShortcut() {
-	if v.onFront() && v.preview != nil {
-		v.askSave("pdf")
+	if !v.onFront() {
+		return
 	}
+	if v.preview == nil {
+		v.saveAsked = true
+		return
+	}
+	v.askSave("pdf")
 }
 
 // askSave opens the file-save dialog for the log as ext ("pdf" or "txt"),

@@ -145,11 +145,7 @@ func logRecordedBook(t *testing.T) (*logbook.Logbook, report.NightLog) {
 // report.NightLog.WriteText gives for the plan of report.ForNight, and it
 // names the site, the night and every planned star.
 func TestLogPreviewDemoNight(t *testing.T) {
-	lb, err := demo.Create(filepath.Join(t.TempDir(), "demo.db"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer lb.Close()
+	lb := demoLogbook(t)
 	targets, err := lb.Targets()
 	if err != nil {
 		t.Fatal(err)

@@ -6,6 +6,7 @@ import (
 
 	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/container"
+	"fyne.io/fyne/v2/layout"
 	"fyne.io/fyne/v2/theme"
 	"fyne.io/fyne/v2/widget"
 
@@ -22,6 +23,9 @@ const (
 	logNoSite = "This logbook has no observing site yet, so there is no night to log. Import a sites.csv " +
 		"giving the site's latitude, longitude (east positive), time zone and lowest useful altitude."
 )
+
+// logTopTextHeight is the most height the texts above the log take.
+const logTopTextHeight = 190
 
 // logPapers are the page sizes offered, in the order shown.
 var logPapers = []report.Paper{report.A4, report.Letter}
@@ -51,11 +55,13 @@ type logView struct {
 	chart                    *ChartView
 	views                    *container.AppTabs // the text, or the chart
 	top                      *fyne.Container
+	topText                  *capBox // the texts above the log
 	root                     *fyne.Container
 
-	lastDir string    // the folder of the last save
-	notice  logNotice // the last message shown in a dialog
-	dlg     logDialog // the dialog on show, if any
+	saveAsked bool      // Ctrl+S came while the log was being prepared
+	lastDir   string    // the folder of the last save
+	notice    logNotice // the last message shown in a dialog
+	dlg       logDialog // the dialog on show, if any
 }
 
 func newLogPage(w *Window) Page {
@@ -96,18 +102,21 @@ func newLogPage(w *Window) Page {
 
 	tools := container.NewHBox(v.savePDF, v.saveText, v.print, widget.NewSeparator(),
 		widget.NewLabel("Paper:"), v.paperChoice)
-	v.top = container.NewVBox(container.NewBorder(nil, nil, tools, nil, v.status),
-		v.summary, v.caution, v.empty, v.record, v.recordNote)
+	// The texts above the log, at most logTopTextHeight high: the night's
+	// notes may run long, and the page must fit the screen.
+	v.topText = capHeight(container.NewVBox(v.summary, v.caution, v.empty, v.record, v.recordNote), logTopTextHeight)
+	v.top = container.NewVBox(container.NewBorder(nil, nil, tools, nil, v.status), v.topText)
 	// The text and the chart take turns in the page's whole width and
 	// height: the text's lines then show whole, and so does the chart's
 	// time axis.
 	v.views = container.NewAppTabs(
-		container.NewTabItem("The log as it prints (text)", v.textBox),
+		// A margin on the left, so that the text does not touch the edge.
+		container.NewTabItem("The log as it prints (text)", container.New(layout.NewCustomPaddedLayout(0, 0, theme.InnerPadding(), 0), v.textBox)),
 		container.NewTabItem("Its altitude chart (page 1 of the PDF)", v.chart))
 	v.root = container.NewBorder(v.top, nil, nil, nil, v.views)
 
 	w.Session.OnChange(v.changed)
-	w.Win.Canvas().AddShortcut(keySaveLog, func(fyne.Shortcut) { v.saveShortcut() })
+	w.AddKey("log", keySaveLog, KeyAnywhere, v.saveShortcut)
 	v.show()
 	return v
 }
@@ -133,7 +142,7 @@ func (v *logView) onFront() bool {
 // changed marks the log out of date when the site, the night or the
 // logbook changed, and builds it again when the page is in front.
 func (v *logView) changed(c Change) {
-	if c&(ChangedSite|ChangedSites|ChangedNight|ChangedTargets) == 0 {
+	if c&(ChangedSite|ChangedSites|ChangedNight|ChangedTargets|ChangedRecords) == 0 {
 		return
 	}
 	v.stale = true
@@ -187,7 +196,11 @@ func (v *logView) rebuild() {
 			v.preview = lp
 			v.status.SetText("")
 			v.show()
+			if v.saveAsked && v.onFront() {
+				v.askSave("pdf")
+			}
 		}
+		v.saveAsked = false
 	})
 }
 
@@ -242,6 +255,7 @@ func (v *logView) show() {
 func (v *logView) relayout() {
 	v.root.Layout.Layout(v.root.Objects, v.root.Size())
 	v.top.Layout.Layout(v.top.Objects, v.top.Size())
+	v.topText.relayout()
 }
 
 // setText shows text in the text grid, scrolled to the top, with the
@@ -282,7 +296,7 @@ func (v *logView) showRecord(lp *LogPreview) {
 		// Two fields a line: observer and equipment, conditions and notes.
 		for i, f := range lp.RecordFields() {
 			value := widget.TextSegment{Text: f.Value + "     ", Style: widget.RichTextStyleInline}
-			if i == 1 {
+			if i%2 == 1 { // the hint goes on a line of its own after the notes
 				value.Style = widget.RichTextStyleParagraph
 			}
 			v.record.Segments = append(v.record.Segments,

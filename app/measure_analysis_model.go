@@ -192,10 +192,26 @@ func measureJointReduction(ms []logbook.Measurement, r MeasureRequest) (*reduce.
 }
 
 // MeasureNote is one line of the check star's summary; Warn marks a
-// warning.
+// warning, Calm a note of context, shown quietly.
 type MeasureNote struct {
 	Text string
 	Warn bool
+	Calm bool
+}
+
+// measureLeapWarning reports whether w is the reduction's warning that
+// exposures fall after the date up to which the leap-second table is known
+// complete (ephem.LeapSecondsStale): it holds for every exposure after
+// that date, and says nothing wrong about the data.
+func measureLeapWarning(w string) bool { return strings.Contains(w, "leap-second table") }
+
+// measureLeapNote says once, as a note, what the end of the leap-second
+// table means for the times of later exposures.
+func measureLeapNote() MeasureNote {
+	return MeasureNote{Calm: true, Text: fmt.Sprintf(
+		"Note: the leap-second table is known complete up to %s; later times assume no leap second since. "+
+			"HJD (UTC) is unaffected; BJD_TDB would be 1 s off if one has been added.",
+		ephem.LeapSecondsValidUntil().Format("2 January 2006"))}
 }
 
 // Summary says in words what the check star and the comparison stars show
@@ -205,7 +221,7 @@ func (a MeasureAnalysis) Summary() []MeasureNote {
 	t := a.Request.Target
 	var out []MeasureNote
 	note := func(warn bool, format string, args ...any) {
-		out = append(out, MeasureNote{fmt.Sprintf(format, args...), warn})
+		out = append(out, MeasureNote{Text: fmt.Sprintf(format, args...), Warn: warn})
 	}
 	where := "in this night"
 	if a.Scope == MeasureAllNights {
@@ -244,11 +260,19 @@ func (a MeasureAnalysis) Summary() []MeasureNote {
 	for _, rj := range r.Rejected {
 		note(true, "Comparison star %s left out: %s", rj.ID, rj.Reason)
 	}
+	leap := false
 	for _, w := range r.Warnings {
+		if measureLeapWarning(w) {
+			leap = true
+			continue
+		}
 		note(true, "%s%s.", strings.ToUpper(w[:1]), strings.TrimSuffix(w[1:], "."))
 	}
 	note(false, "A warning shows when the check star is more than %.2f mag off its catalogue value or scatters by more than %.2f mag (common practice).",
 		reduce.CheckOffsetWarnMag, reduce.CheckScatterWarnMag)
+	if leap {
+		out = append(out, measureLeapNote())
+	}
 	return out
 }
 

@@ -2,7 +2,6 @@ package app
 
 import (
 	"math"
-	"path/filepath"
 	"strings"
 	"testing"
 	"time"
@@ -223,12 +222,7 @@ func TestMeasureBadEntries(t *testing.T) {
 // measureDemo makes a demo logbook in a temporary directory.
 func measureDemo(t testing.TB) *logbook.Logbook {
 	t.Helper()
-	lb, err := demo.Create(filepath.Join(t.TempDir(), "demo.db"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	t.Cleanup(func() { lb.Close() })
-	return lb
+	return demoLogbook(t)
 }
 
 // A visual estimate typed for the demo's eye-followed star gives the

@@ -161,6 +161,9 @@ func measureReduceInst(t observe.Target, site *observe.Site, m logbook.Measureme
 		if red.Check != nil && red.Check.N == 0 && strings.HasPrefix(w, "check star") && strings.Contains(w, "not measured") {
 			continue // a typed row may leave the check star out
 		}
+		if measureLeapWarning(w) {
+			continue // true of every row after the table's end: the summary says it once
+		}
 		notes = append(notes, w)
 	}
 	res := MeasureReduced{M: m, Notes: notes, CheckMag: r.CheckMag}

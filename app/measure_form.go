@@ -42,13 +42,10 @@ func (f *measureForm) newField(name, placeholder string) *measureField {
 	return e
 }
 
-// TypedShortcut implements fyne.Shortcutable.
+// TypedShortcut implements fyne.Shortcutable: the window's keys (and the
+// pages', Ctrl+N among them) go to the window.
 func (e *measureField) TypedShortcut(s fyne.Shortcut) {
-	switch {
-	case s.ShortcutName() == measureKeyNew.ShortcutName():
-		e.f.v.newRow()
-	case e.f.v.w.shortcut(s):
-	default:
+	if !e.f.v.w.shortcut(s) {
 		e.Entry.TypedShortcut(s)
 	}
 }
@@ -66,6 +63,9 @@ type measureStarFields struct {
 	mag, err *measureField
 	box      fyne.CanvasObject
 }
+
+// measureMessagesHeight is the most height the entry row's messages take.
+const measureMessagesHeight = 96
 
 // measureForm is the entry grid's new row: the time with its zone and Now,
 // the mode, then either the visual estimate or the instrumental magnitudes
@@ -107,11 +107,9 @@ func newMeasureForm(v *measureView) *measureForm {
 	f.now = widget.NewButtonWithIcon("Now", theme.HistoryIcon(), f.fillNow)
 	f.zone = widget.NewSelect([]string{"Local", "UTC"}, func(string) { f.edited(f.time) })
 	f.echo = widget.NewLabel("")
-	f.echo.Importance = widget.LowImportance
 	f.estimate = f.newField(MeasureFieldEstimate, "C1 2 V 3 C2")
 	f.step = f.newField(MeasureFieldStep, "step")
 	f.chart = widget.NewLabel("")
-	f.chart.Importance = widget.LowImportance
 	f.chart.Truncation = fyne.TextTruncateEllipsis
 	f.filter = f.newField(MeasureFieldFilter, "V")
 	f.airmass = f.newField(MeasureFieldAirmass, "—")
@@ -129,11 +127,14 @@ func newMeasureForm(v *measureView) *measureForm {
 	f.instRow = &fyne.Container{Layout: &measureFlow{}}
 	f.visRow = container.NewBorder(nil, nil,
 		container.NewHBox(widget.NewLabel("Estimate"), measureSized(f.estimate, 220), widget.NewLabel("Step"), measureSized(f.step, 64),
-			widget.NewLabel("mag")), nil, f.chart)
+			widget.NewLabel("mag")), nil, quiet(f.chart))
 	f.echo.Truncation = fyne.TextTruncateEllipsis
-	timeRow := container.NewBorder(nil, nil, container.NewHBox(widget.NewLabel("Time"), measureSized(f.time, 110), f.now, f.zone), nil, f.echo)
+	timeRow := container.NewBorder(nil, nil, container.NewHBox(widget.NewLabel("Time"), measureSized(f.time, 110), f.now, f.zone), nil, quiet(f.echo))
 	top := container.NewBorder(nil, nil, f.mode, nil, timeRow)
-	f.box = container.NewVBox(top, f.instRow, f.visRow, f.problems, f.result)
+	// What is wrong, or what the last row gave, under the row: at most
+	// about four lines high (it scrolls beyond), so that a long message
+	// never pushes the page taller than the screen.
+	f.box = container.NewVBox(top, f.instRow, f.visRow, capHeight(container.NewVBox(f.problems, f.result), measureMessagesHeight))
 	f.mode.SetSelected(measureModeInst)
 	f.zone.SetSelected("Local")
 	return f

@@ -110,7 +110,7 @@ func StoreMeasureImport(lb *logbook.Logbook, r MeasureRequest, details logbook.N
 func (pv MeasurePreview) Notes(rows int, nights []MeasureImportNight) []MeasureNote {
 	var out []MeasureNote
 	note := func(warn bool, format string, args ...any) {
-		out = append(out, MeasureNote{fmt.Sprintf(format, args...), warn})
+		out = append(out, MeasureNote{Text: fmt.Sprintf(format, args...), Warn: warn})
 	}
 	if pv.Err != nil {
 		note(true, "Nothing can be imported: %v", pv.Err)
@@ -149,8 +149,16 @@ func (pv MeasurePreview) Notes(rows int, nights []MeasureImportNight) []MeasureN
 		note(false, "Check star %s: mean %.3f mag, scatter %s (n = %d), offset %s mag from the catalogue %.3f.",
 			c.ID, c.Mean, std, c.N, measureSigned(c.OffsetMag), c.CatalogMag)
 	}
+	leap := false
 	for _, w := range r.Warnings {
+		if measureLeapWarning(w) {
+			leap = true
+			continue
+		}
 		note(true, "%s%s.", strings.ToUpper(w[:1]), strings.TrimSuffix(w[1:], "."))
+	}
+	if leap {
+		out = append(out, measureLeapNote())
 	}
 	return out
 }

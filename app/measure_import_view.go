@@ -253,8 +253,11 @@ func (p *measureImportView) showPreview(notes []MeasureNote) {
 	var segs []widget.RichTextSegment
 	for _, n := range notes {
 		st := widget.RichTextStyleParagraph
-		if n.Warn {
+		switch {
+		case n.Warn:
 			st.ColorName = theme.ColorNameError
+		case n.Calm:
+			st.ColorName = theme.ColorNamePlaceHolder
 		}
 		segs = append(segs, &widget.TextSegment{Text: n.Text, Style: st})
 	}
@@ -282,7 +285,7 @@ func (p *measureImportView) store() {
 		}
 		p.close()
 		p.v.status.SetText(fmt.Sprintf("Imported %s from %s.", plural(n, "frame", "frames"), filepath.Base(p.im.Name)))
-		p.v.w.Reload()
+		p.v.w.RecordsChanged()
 	})
 }
 

@@ -1,6 +1,8 @@
 package app
 
 import (
+	"math"
+
 	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/theme"
 )
@@ -32,7 +34,9 @@ func measureSized(o fyne.CanvasObject, w float32) fyne.CanvasObject {
 // measureFlow lays objects out left to right at their minimum size,
 // starting a new line when the next would not fit: the entry grid's star
 // fields, however many comparison stars a star has. Its minimum height is
-// that of the lines at the width it was last given.
+// that of the lines at the width it was last given; before it has been laid
+// out (a hidden page) it assumes one line, rather than one object a line,
+// which would ask the window for hundreds of pixels it does not need.
 type measureFlow struct{ width float32 }
 
 func (l *measureFlow) lines(objs []fyne.CanvasObject, width float32) (rows [][]fyne.CanvasObject) {
@@ -62,6 +66,9 @@ func (l *measureFlow) MinSize(objs []fyne.CanvasObject) fyne.Size {
 		}
 	}
 	width := l.width
+	if width <= 0 {
+		width = float32(math.Inf(1))
+	}
 	if width < minW {
 		width = minW
 	}
@@ -114,5 +121,39 @@ func (l measureMin) Layout(objs []fyne.CanvasObject, s fyne.Size) {
 	for _, o := range objs {
 		o.Move(fyne.NewPos(0, 0))
 		o.Resize(s)
+	}
+}
+
+// measureWeights lays objects out in a row, sharing the width in
+// proportion to their weights (the night's fields: the equipment is the
+// longest text), each at least its minimum width.
+type measureWeights []float32
+
+func (l measureWeights) MinSize(objs []fyne.CanvasObject) fyne.Size {
+	var s fyne.Size
+	for i, o := range objs {
+		m := o.MinSize()
+		if i > 0 {
+			s.Width += theme.Padding()
+		}
+		s.Width += m.Width
+		s.Height = max(s.Height, m.Height)
+	}
+	return s
+}
+
+func (l measureWeights) Layout(objs []fyne.CanvasObject, size fyne.Size) {
+	pad := theme.Padding()
+	total := float32(0)
+	for i := range objs {
+		total += l[i%len(l)]
+	}
+	free := size.Width - pad*float32(max(len(objs)-1, 0))
+	x := float32(0)
+	for i, o := range objs {
+		w := free * l[i%len(l)] / total
+		o.Move(fyne.NewPos(x, 0))
+		o.Resize(fyne.NewSize(w, size.Height))
+		x += w + pad
 	}
 }

@@ -69,7 +69,8 @@ func (v *measureView) showCharts() {
 	v.phase.SetSource(measurePhaseSource(*a, v.binsChosen()))
 }
 
-// setSummary shows the check star's summary, warnings in the error colour.
+// setSummary shows the check star's summary, warnings in the error colour,
+// notes of context in the quiet colour of secondary text.
 func (v *measureView) setSummary(notes []MeasureNote) {
 	var segs []widget.RichTextSegment
 	if len(notes) == 0 {
@@ -77,8 +78,11 @@ func (v *measureView) setSummary(notes []MeasureNote) {
 	}
 	for _, n := range notes {
 		st := widget.RichTextStyleParagraph
-		if n.Warn {
+		switch {
+		case n.Warn:
 			st.ColorName = theme.ColorNameError
+		case n.Calm:
+			st.ColorName = theme.ColorNamePlaceHolder
 		}
 		segs = append(segs, &widget.TextSegment{Text: n.Text, Style: st})
 	}

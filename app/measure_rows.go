@@ -133,11 +133,12 @@ func (v *measureView) addRow() {
 		v.form.showResult(a.red)
 		if v.req != nil && v.req.Key() == r.Key() && v.data != nil {
 			v.data.Night = a.night
-			v.data.All = measureInsert(v.data.All, a.m)
+			v.data.All = measureInsert(v.data.All, a.m) // the row shows at once
 			v.showTable()
-			v.analyse()
 		}
-		v.w.Reload()
+		// The pages showing records (this one's charts and summary too)
+		// read them again; the night is not planned again.
+		v.w.RecordsChanged()
 	})
 }
 
@@ -177,9 +178,8 @@ func (v *measureView) deleteID(id int64) {
 		if v.req != nil && v.req.Key() == r.Key() && v.data != nil {
 			v.data.All = slices.DeleteFunc(slices.Clone(v.data.All), func(x logbook.Measurement) bool { return x.ID == m.ID })
 			v.showTable()
-			v.analyse()
 		}
-		v.w.Reload()
+		v.w.RecordsChanged()
 	})
 }
 
@@ -201,6 +201,6 @@ func (v *measureView) undoDelete() {
 			return
 		}
 		v.status.SetText("The row is back.")
-		v.w.Reload()
+		v.w.RecordsChanged()
 	})
 }

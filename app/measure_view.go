@@ -32,9 +32,9 @@ type measureView struct {
 	form *measureForm
 
 	title      *widget.Label
-	observer   *widget.Entry
-	equipment  *widget.Entry
-	conditions *widget.Entry
+	observer   *keyEntry
+	equipment  *keyEntry
+	conditions *keyEntry
 	saveNight  *widget.Button
 	importBtn  *widget.Button
 	grid       *keyTable
@@ -64,7 +64,7 @@ func newMeasurePage(w *Window) Page {
 	v.form = newMeasureForm(v)
 	v.title = widget.NewLabelWithStyle("", fyne.TextAlignLeading, fyne.TextStyle{Bold: true})
 	v.title.Truncation = fyne.TextTruncateEllipsis
-	v.observer, v.equipment, v.conditions = widget.NewEntry(), widget.NewEntry(), widget.NewEntry()
+	v.observer, v.equipment, v.conditions = newKeyEntry(w), newKeyEntry(w), newKeyEntry(w)
 	v.observer.PlaceHolder, v.equipment.PlaceHolder, v.conditions.PlaceHolder = "observer", "telescope, camera, filter", "sky, seeing, Moon"
 	v.saveNight = widget.NewButtonWithIcon("Save night", theme.DocumentSaveIcon(), v.saveNightDetails)
 	v.importBtn = widget.NewButtonWithIcon("Import CSV…", theme.FolderOpenIcon(), v.chooseImport)
@@ -100,7 +100,7 @@ func newMeasurePage(w *Window) Page {
 	v.light, v.phase = w.NewChartView(), w.NewChartView()
 
 	night := container.NewBorder(nil, nil, widget.NewLabel("Night:"), v.saveNight,
-		container.NewGridWithColumns(3, v.observer, v.equipment, v.conditions))
+		&fyne.Container{Layout: measureWeights{1, 1.7, 1.3}, Objects: []fyne.CanvasObject{v.observer, v.equipment, v.conditions}})
 	top := container.NewVBox(v.title, night, widget.NewSeparator(), v.form.box, widget.NewSeparator())
 	rowsBar := container.NewBorder(nil, nil, v.rowsHead, container.NewHBox(v.undo, v.importBtn), v.status)
 	rows := container.NewBorder(rowsBar, nil, nil, nil,
@@ -116,7 +116,7 @@ func newMeasurePage(w *Window) Page {
 	v.pageMsg = container.NewVScroll(container.NewPadded(v.pageEmpty))
 	v.root = container.NewStack(v.content, v.pageMsg)
 
-	w.Win.Canvas().AddShortcut(measureKeyNew, func(fyne.Shortcut) { v.newRow() })
+	w.AddKey("measure", measureKeyNew, KeyAnywhere, v.newRow)
 	w.Session.OnChange(v.changed)
 	v.load()
 	return v
@@ -133,10 +133,10 @@ func (v *measureView) relayout() {
 // Content implements Page.
 func (v *measureView) Content() fyne.CanvasObject { return v.root }
 
-// changed follows the session: another star, night or site, or the
-// logbook read again.
+// changed follows the session: another star, night or site, the logbook
+// read again, or records written (the rows, charts and summary follow).
 func (v *measureView) changed(c Change) {
-	if c&(ChangedSelection|ChangedNight|ChangedSite|ChangedSites|ChangedTargets) != 0 {
+	if c&(ChangedSelection|ChangedNight|ChangedSite|ChangedSites|ChangedTargets|ChangedRecords) != 0 {
 		v.load()
 	}
 }
@@ -230,7 +230,7 @@ func (v *measureView) saveNightDetails() {
 			v.data.Night = n
 		}
 		v.status.SetText("Night details saved.")
-		v.w.Reload()
+		v.w.RecordsChanged()
 	})
 }
 

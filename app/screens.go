@@ -19,7 +19,8 @@ import (
 //     interactive ones as fields, so that tests can tap and type them.
 //   - It follows the session with w.Session.OnChange (ChangedSite,
 //     ChangedNight, ChangedTargets, ChangedSelection, ChangedTheme,
-//     ChangedPlan; listeners run on the UI thread) and reads it there:
+//     ChangedPlan, ChangedRecords; listeners run on the UI thread) and
+//     reads it there:
 //     w.Session.Site(), Date(), Targets(), Selected(), Night() (the
 //     current night's plan, nil while it is computed), Logbook().
 //   - Anything that may take more than a few milliseconds (logbook reads
@@ -31,8 +32,14 @@ import (
 //     *plot.Plot or chart.Panels for the palette it is handed, off the UI
 //     thread); they are redrawn on resize and rebuilt on theme change.
 //     ChartView.OnPick and Area map drags and positions to data.
-//   - After changing the logbook, call w.Reload() so that every page and
-//     the star list see the change.
+//   - After adding or deleting measurements or a night's details, call
+//     w.RecordsChanged(): the pages showing records read them again,
+//     without planning the night again. After changing sites or targets
+//     (a star, its ephemeris or comparison stars, a timing), call
+//     w.Reload() so that every page, the star list and the plan see it.
+//   - Keyboard shortcuts go through w.AddKey(page, key, scope, fn), which
+//     reaches the page whatever has the keyboard; entries are
+//     newKeyEntry(w), which pass the window's keys on.
 //   - A page that wants to know when it is brought to the front implements
 //     Shown().
 //   - Empty states say what to do next, in the page's own words.

@@ -64,7 +64,7 @@ func ForecastStar(ctx context.Context, site observe.Site, t observe.Target, date
 // StarForecastColumns are the headings of the forecast table; "Max/min" is
 // left out for a star whose extrema are all of one kind (no secondary
 // minima).
-var StarForecastColumns = []string{"Night of", "Local", "UTC", "Max/min", "± σ", "Altitude", "Verdict", "Usable"}
+var StarForecastColumns = []string{"Night of", "Local", "UTC", "Max/min", "± σ", "Altitude", "Usable", "Verdict"}
 
 // StarForecastRow is one extremum of the forecast and its cells, in the
 // order of StarForecastModel.Columns.

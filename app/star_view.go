@@ -14,6 +14,10 @@ import (
 	"example.org/vigil/observe"
 )
 
+// starMessagesHeight is the most height the outcome of an action and a
+// question take above the page (they scroll beyond).
+const starMessagesHeight = 110
+
 // starView is the Star page: the selected star's position, class,
 // ephemeris with its history, comparison and check stars and notes on the
 // left (or the form editing them), the forecast of its coming nights and
@@ -95,7 +99,7 @@ func newStarPage(w *Window) Page {
 	// on the right.
 	head := container.NewBorder(nil, nil, nil, container.NewHBox(v.add, v.imp, v.exp), v.title)
 	sub := container.NewBorder(nil, nil, nil, container.NewHBox(v.edit, v.adopt, v.del), v.summary)
-	v.top = container.NewVBox(head, sub, v.message, v.confirm.root, widget.NewSeparator())
+	v.top = container.NewVBox(head, sub, capHeight(container.NewVBox(v.message, v.confirm.root), starMessagesHeight), widget.NewSeparator())
 	v.confirm.changed = v.relayout
 	v.root = container.NewBorder(v.top, nil, nil, nil,
 		container.NewStack(container.NewVScroll(container.NewPadded(v.empty)), v.body))
@@ -123,8 +127,8 @@ func (v *starView) changed(c Change) {
 			s.Select(name) // notifies again, with the selection
 		}
 	}
-	if c&(ChangedTargets|ChangedSelection) != 0 {
-		v.show()
+	if c&(ChangedTargets|ChangedSelection|ChangedRecords) != 0 {
+		v.show() // reads the star's history and mean V again
 	}
 	if c&(ChangedSite|ChangedSites|ChangedNight|ChangedTargets|ChangedSelection) != 0 {
 		v.forecast.update()

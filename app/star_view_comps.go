@@ -32,7 +32,8 @@ type starCompsPanel struct {
 	table             *widget.Table
 	tableBox          *fyne.Container
 	empty             *widget.Label
-	id, vmag, bv      *widget.Entry
+	emptyBox          *container.ThemeOverride
+	id, vmag, bv      *keyEntry
 	role              *widget.Select
 	errs              map[string]*widget.Label
 	add, save, remove *widget.Button
@@ -65,10 +66,9 @@ func newStarCompsPanel(v *starView) *starCompsPanel {
 	p.tableBox = container.New(&starHeightLayout{rows: 1}, p.table)
 	p.empty = widget.NewLabel("None yet: add the stars you compare this one with below.")
 	p.empty.Wrapping = fyne.TextWrapWord
-	p.empty.Importance = widget.LowImportance
 
-	entry := func(key, hint string) *widget.Entry {
-		e := widget.NewEntry()
+	entry := func(key, hint string) *keyEntry {
+		e := newKeyEntry(v.w)
 		e.SetPlaceHolder(hint)
 		e.OnChanged = func(string) { p.clearErr(key) }
 		e.OnSubmitted = func(string) { // Enter adds, or saves the row picked
@@ -102,7 +102,8 @@ func newStarCompsPanel(v *starView) *starCompsPanel {
 	p.formErr.Hide()
 	editor := container.New(layout.NewGridLayoutWithColumns(2),
 		withErr(StarFieldCompID, p.id), withErr(StarFieldCompV, p.vmag), withErr(StarFieldCompBV, p.bv), p.role)
-	p.root = container.NewVBox(p.tableBox, p.empty, editor,
+	p.emptyBox = quiet(p.empty)
+	p.root = container.NewVBox(p.tableBox, p.emptyBox, editor,
 		container.NewHBox(p.add, p.save, p.remove), p.formErr)
 	p.pick(-1)
 	return p
@@ -118,6 +119,7 @@ func (p *starCompsPanel) update(rows []StarComp) {
 	p.tableBox.Layout.(*starHeightLayout).rows = len(rows)
 	p.tableBox.Hidden = len(rows) == 0
 	p.empty.Hidden = len(rows) > 0
+	p.emptyBox.Hidden = p.empty.Hidden
 	p.table.UnselectAll()
 	p.pick(-1)
 	p.table.Refresh()

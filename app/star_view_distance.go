@@ -22,8 +22,8 @@ import (
 type starDistancePanel struct {
 	v        *starView
 	out      StarDistance
-	meanV    *widget.Entry
-	av       *widget.Entry
+	meanV    *keyEntry
+	av       *keyEntry
 	relation *widget.Select
 	meanErr  *widget.Label
 	avErr    *widget.Label
@@ -40,10 +40,10 @@ type starDistancePanel struct {
 
 func newStarDistancePanel(v *starView) *starDistancePanel {
 	p := &starDistancePanel{v: v}
-	p.meanV = widget.NewEntry()
+	p.meanV = newKeyEntry(v.w)
 	p.meanV.SetPlaceHolder("intensity-mean V (mag)")
 	p.meanV.OnChanged = func(string) { p.compute() }
-	p.av = widget.NewEntry()
+	p.av = newKeyEntry(v.w)
 	p.av.SetPlaceHolder("0 (mag; empty: none)")
 	p.av.OnChanged = func(string) { p.compute() }
 	var names []string
@@ -69,7 +69,6 @@ func newStarDistancePanel(v *starView) *starDistancePanel {
 	p.warn.Hide()
 	p.note = widget.NewLabel(StarDistanceNote)
 	p.note.Wrapping = fyne.TextWrapWord
-	p.note.Importance = widget.LowImportance
 	p.off = widget.NewLabel("")
 	p.off.Wrapping = fyne.TextWrapWord
 	inputs := container.New(layout.NewFormLayout(),
@@ -78,7 +77,7 @@ func newStarDistancePanel(v *starView) *starDistancePanel {
 		widget.NewLabel("Relation"), p.relation)
 	p.headline = widget.NewLabelWithStyle("", fyne.TextAlignLeading, fyne.TextStyle{Bold: true})
 	p.headline.Wrapping = fyne.TextWrapWord
-	p.box = container.NewVBox(p.headline, inputs, p.result, p.warn, p.note)
+	p.box = container.NewVBox(p.headline, inputs, p.result, p.warn, quiet(p.note))
 	p.root = container.NewVBox(widget.NewSeparator(), starSection("Distance from the period–luminosity relation"), p.box, p.off)
 	return p
 }
@@ -191,6 +190,6 @@ func (p *starDistancePanel) keepMean() {
 		} else {
 			p.v.say(fmt.Sprintf("Kept %.3f mag as the mean V of %s.", v, name), false)
 		}
-		p.v.w.Reload()
+		p.v.w.RecordsChanged() // a record of the star's: nothing to plan again
 	})
 }

@@ -7,11 +7,9 @@ import (
 	"strings"
 	"testing"
 
-	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/test"
 	"fyne.io/fyne/v2/widget"
 
-	"example.org/vigil/internal/demo"
 	"example.org/vigil/observe"
 	"example.org/vigil/observe/logbook"
 	"example.org/vigil/reduce"
@@ -49,11 +47,7 @@ func TestStarImportView(t *testing.T) {
 
 // Importing into the demo logbook asks first, since it removes the demo.
 func TestStarImportIntoDemoAsks(t *testing.T) {
-	lb, err := demo.Create(filepath.Join(t.TempDir(), "demo.db"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	t.Cleanup(func() { lb.Close() })
+	lb := demoLogbook(t)
 	w, q, v := starOpen(t, lb, "")
 	v.importFile(starExampleCSV)
 	settle(t, w, q)
@@ -130,11 +124,7 @@ func TestStarCompsEdit(t *testing.T) {
 // The demo's Cepheid-like star shows its distance, as reduce.Distance
 // gives it from the stored mean V; an eclipsing star shows none.
 func TestStarDistanceDemo(t *testing.T) {
-	lb, err := demo.Create(filepath.Join(t.TempDir(), "demo.db"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	t.Cleanup(func() { lb.Close() })
+	lb := demoLogbook(t)
 	const name = "Ashgrove V2"
 	w, q, v := starOpen(t, lb, name)
 	mean, err := lb.MeanMagV(name)
@@ -233,19 +223,8 @@ func TestStarNightRed(t *testing.T) {
 	w.Session.SetTheme(ThemeNightRed)
 	settle(t, w, q)
 	check := func(what string) {
-		img := w.Win.Canvas().Capture()
-		b := img.Bounds()
-		bad := 0
-		for y := b.Min.Y; y < b.Max.Y; y++ {
-			for x := b.Min.X; x < b.Max.X; x++ {
-				if c := img.At(x, y); !nightSafe(c) {
-					if bad < 3 {
-						t.Errorf("%s: pixel (%d, %d) = %v is not deep red", what, x, y, c)
-					}
-					bad++
-				}
-			}
-		}
+		t.Helper()
+		assertNightRed(t, what, w.Win.Canvas().Capture(), nil)
 	}
 	check("details")
 	test.Tap(v.edit)
@@ -255,8 +234,8 @@ func TestStarNightRed(t *testing.T) {
 }
 
 // A theme chosen while the Star page is in front reaches the Tonight page
-// too (its table's lines were left in the old theme's grey): no pixel
-// outside the chart has green or blue, or red above nightMaxRed.
+// too (its table's lines were left in the old theme's grey): no pixel has
+// green or blue, or red above nightMaxRed.
 func TestStarThemeReachesHiddenPage(t *testing.T) {
 	lb := smallLogbook(t)
 	w, q, _ := starOpen(t, lb, "Test Alpha")
@@ -264,21 +243,5 @@ func TestStarThemeReachesHiddenPage(t *testing.T) {
 	settle(t, w, q)
 	w.ShowPage("tonight")
 	settle(t, w, q)
-	img := w.Win.Canvas().Capture()
-	cv := tonight(t, w).chart
-	c0 := fyne.CurrentApp().Driver().AbsolutePositionForObject(cv)
-	b := img.Bounds()
-	bad := 0
-	for y := b.Min.Y; y < b.Max.Y; y++ {
-		for x := b.Min.X; x < b.Max.X; x++ {
-			// The chart's own pixels are TestNightRedWindowHasNoWhite's.
-			inChart := float32(x) >= c0.X && float32(y) >= c0.Y && float32(x) < c0.X+cv.Size().Width && float32(y) < c0.Y+cv.Size().Height
-			if c := img.At(x, y); !inChart && !nightSafe(c) {
-				if bad < 3 {
-					t.Errorf("pixel (%d, %d) = %v is not deep red", x, y, c)
-				}
-				bad++
-			}
-		}
-	}
+	assertNightRed(t, "Tonight after a theme change on the Star page", w.Win.Canvas().Capture(), nil)
 }

@@ -15,8 +15,8 @@ import (
 )
 
 // starForecastWidths are the widths of the forecast table's columns.
-var starForecastWidths = map[string]float32{"Night of": 88, "Local": 54, "UTC": 52, "Max/min": 66, "± σ": 76,
-	"Altitude": 66, "Verdict": 150, "Usable": 62}
+var starForecastWidths = map[string]float32{"Night of": 98, "Local": 54, "UTC": 52, "Max/min": 66, "± σ": 76,
+	"Altitude": 66, "Verdict": 230, "Usable": 62}
 
 // starForecastPanel is the forecast of the star's coming nights at the
 // current site: its extrema with their verdicts and uncertainties.
@@ -87,9 +87,11 @@ func newStarForecastPanel(v *starView) *starForecastPanel {
 	return p
 }
 
+// newCell makes a cell; a text too long for it ends in an ellipsis (the
+// row's detail under the table, on a tap, has it whole).
 func (p *starForecastPanel) newCell() fyne.CanvasObject {
 	t := widget.NewRichText(&widget.TextSegment{})
-	t.Truncation = fyne.TextTruncateClip
+	t.Truncation = fyne.TextTruncateEllipsis
 	return t
 }
 

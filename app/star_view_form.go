@@ -38,18 +38,21 @@ type starFormPanel struct {
 	editing string // the star edited or given a new ephemeris
 
 	heading, intro     *widget.Label
-	entries            map[string]*widget.Entry
+	entries            map[string]*keyEntry
 	errs               map[string]*widget.Label
+	labels             map[string]string // each field's label, by key
+	order              []string          // the fields' keys in the form's order
 	class, kind, scale *widget.Select
 	secondary          *widget.Check
 	starBox, ephemBox  *fyne.Container
 	formErr            *widget.Label
 	save, cancel       *widget.Button
-	root               *container.Scroll
+	scroll             *container.Scroll // the fields
+	root               *fyne.Container   // the fields over the buttons
 }
 
 func newStarFormPanel(v *starView) *starFormPanel {
-	f := &starFormPanel{v: v, entries: map[string]*widget.Entry{}, errs: map[string]*widget.Label{}}
+	f := &starFormPanel{v: v, entries: map[string]*keyEntry{}, errs: map[string]*widget.Label{}, labels: map[string]string{}}
 	f.heading = widget.NewLabelWithStyle("", fyne.TextAlignLeading, fyne.TextStyle{Bold: true})
 	f.heading.Importance = widget.HighImportance
 	f.intro = widget.NewLabel("")
@@ -67,9 +70,8 @@ func newStarFormPanel(v *starView) *starFormPanel {
 	f.kind = widget.NewSelect(starKindOptions, func(string) { f.clearErr(StarFieldKind) })
 	f.scale = widget.NewSelect(starScaleOptions, func(string) { f.clearErr(StarFieldScale) })
 	f.secondary = widget.NewCheck("also predict secondary minima (at E + 0.5)", nil)
-	notes := widget.NewMultiLineEntry()
+	notes := newKeyMultiLineEntry(v.w)
 	notes.SetMinRowsVisible(3)
-	notes.Wrapping = fyne.TextWrapWord
 	f.entries["notes"] = notes
 
 	var rows []fyne.CanvasObject
@@ -109,15 +111,18 @@ func newStarFormPanel(v *starView) *starFormPanel {
 	f.save = widget.NewButtonWithIcon("Save", theme.ConfirmIcon(), f.submit)
 	f.save.Importance = widget.HighImportance
 	f.cancel = widget.NewButtonWithIcon("Cancel", theme.CancelIcon(), f.close)
-	f.root = container.NewVScroll(container.NewVBox(f.heading, f.intro, f.starBox, f.ephemBox, f.formErr,
-		container.NewHBox(f.save, f.cancel)))
+	// The fields scroll; what is wrong with the form as a whole, and Save
+	// and Cancel, stay in sight under them.
+	f.scroll = container.NewVScroll(container.NewVBox(f.heading, f.intro, f.starBox, f.ephemBox))
+	f.root = container.NewBorder(nil, container.NewVBox(widget.NewSeparator(),
+		capHeight(f.formErr, starMessagesHeight), container.NewHBox(f.save, f.cancel)), nil, nil, f.scroll)
 	f.root.Hide()
 	return f
 }
 
 // row makes an entry row for field key.
 func (f *starFormPanel) row(key, label, hint string) []fyne.CanvasObject {
-	e := widget.NewEntry()
+	e := newKeyEntry(f.v.w)
 	e.SetPlaceHolder(hint)
 	e.OnChanged = func(string) { f.clearErr(key) }
 	e.OnSubmitted = func(string) { f.submit() } // Enter saves
@@ -132,6 +137,8 @@ func (f *starFormPanel) rowOf(key, label string, field fyne.CanvasObject) []fyne
 	l.Importance = widget.DangerImportance
 	l.Hide()
 	f.errs[key] = l
+	f.labels[key] = label
+	f.order = append(f.order, key)
 	return []fyne.CanvasObject{widget.NewLabel(label), container.NewVBox(field, l)}
 }
 
@@ -149,7 +156,7 @@ func (f *starFormPanel) showErrs(errs StarFieldErrors) {
 	for k := range f.errs {
 		f.clearErr(k)
 	}
-	var rest []string
+	var rest, marked []string
 	for k, msg := range errs {
 		if l := f.errs[k]; l != nil && k != StarFieldForm {
 			l.SetText(msg)
@@ -158,9 +165,28 @@ func (f *starFormPanel) showErrs(errs StarFieldErrors) {
 			rest = append(rest, msg)
 		}
 	}
+	// The fields at fault may have scrolled out of sight: say which they
+	// are beside the buttons.
+	for _, k := range f.order {
+		if _, bad := errs[k]; bad && f.errs[k] != nil && k != StarFieldForm {
+			marked = append(marked, f.labels[k])
+		}
+	}
+	if len(marked) > 0 {
+		rest = append([]string{"Not saved: see the message under " + starJoin(marked) + "."}, rest...)
+	}
 	f.formErr.SetText(strings.Join(rest, "\n"))
 	f.formErr.Hidden = len(rest) == 0
 	f.root.Refresh()
+}
+
+// starJoin joins names as words do: "RA (h)", "RA (h) and Dec (°)",
+// "Name, RA (h) and Dec (°)".
+func starJoin(names []string) string {
+	if len(names) < 2 {
+		return strings.Join(names, "")
+	}
+	return strings.Join(names[:len(names)-1], ", ") + " and " + names[len(names)-1]
 }
 
 // open shows the form in mode, filled from the star on show (or empty for
@@ -197,7 +223,7 @@ func (f *starFormPanel) open(mode starFormMode) {
 	f.starBox.Hidden = mode == starFormAdopt
 	f.ephemBox.Hidden = mode == starFormEdit
 	f.root.Show()
-	f.root.ScrollToTop()
+	f.scroll.ScrollToTop()
 	v.details.Hide()
 	v.refresh()
 	v.forecast.build()

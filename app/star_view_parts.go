@@ -9,7 +9,7 @@ import (
 
 // starKeyWidth is the width of the keys of the key/value lines, the same
 // in every panel so that their values line up.
-const starKeyWidth = 132
+const starKeyWidth = 144
 
 // starKeyLayout gives a key at least starKeyWidth.
 type starKeyLayout struct{}

@@ -22,6 +22,10 @@ const (
 	ChangedSelection                    // the selected target
 	ChangedTheme                        // the theme choice
 	ChangedPlan                         // the night's plan arrived or was cleared (Session.Night)
+	// ChangedRecords: the logbook's records (measurements, nights, timings)
+	// may have changed, and nothing the plan depends on (RecordsChanged;
+	// Apply sends it with the targets, as a read may bring both).
+	ChangedRecords
 )
 
 // Snapshot is what the window reads from the logbook in one go (off the UI
@@ -133,8 +137,15 @@ func (s *Session) Apply(snap Snapshot) {
 	}
 	s.night = nil
 	s.gen++
-	s.notify(c | ChangedPlan)
+	s.notify(c | ChangedPlan | ChangedRecords)
 }
+
+// RecordsChanged tells the listeners that records were added to the
+// logbook or deleted from it (measurements, a night's details) without
+// touching its sites or targets: the pages that show records read them
+// again, and the night is not planned again (a plan depends on the sites
+// and targets only).
+func (s *Session) RecordsChanged() { s.notify(ChangedRecords) }
 
 // Tonight returns the civil date (0h UTC) of the night under way or coming
 // at the site at instant now: the local date, or the day before until

@@ -78,9 +78,24 @@ func TestSessionReloadPicksSiteAndNight(t *testing.T) {
 	if len(s.Targets()) != len(smallTargets()) {
 		t.Errorf("targets after Reload: got %d, want %d", len(s.Targets()), len(smallTargets()))
 	}
-	want := ChangedSites | ChangedTargets | ChangedSite | ChangedNight | ChangedPlan
+	want := ChangedSites | ChangedTargets | ChangedSite | ChangedNight | ChangedPlan | ChangedRecords
 	if rec.last() != want {
 		t.Errorf("change reported by Reload: got %b, want %b", rec.last(), want)
+	}
+}
+
+// RecordsChanged reports the records alone: nothing the plan depends on.
+func TestSessionRecordsChanged(t *testing.T) {
+	s := NewSession(smallLogbook(t), func() time.Time { return testNow })
+	if err := s.Reload(); err != nil {
+		t.Fatal(err)
+	}
+	var rec recorder
+	s.OnChange(rec.listen)
+	gen := s.gen
+	s.RecordsChanged()
+	if rec.last() != ChangedRecords || s.gen != gen {
+		t.Errorf("RecordsChanged reported %b (plan stamp %d to %d); want %b alone, the stamp kept", rec.last(), gen, s.gen, ChangedRecords)
 	}
 }
 

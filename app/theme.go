@@ -4,7 +4,9 @@ import (
 	"image/color"
 
 	"fyne.io/fyne/v2"
+	"fyne.io/fyne/v2/container"
 	"fyne.io/fyne/v2/theme"
+	"fyne.io/fyne/v2/widget"
 
 	"example.org/vigil/app/chart"
 )
@@ -38,6 +40,36 @@ func (appTheme) Icon(n fyne.ThemeIconName) fyne.Resource { return theme.DefaultT
 // Size returns the default theme's size.
 func (appTheme) Size(n fyne.ThemeSizeName) float32 { return theme.DefaultTheme().Size(n) }
 
+// quietTheme is the window's theme with the colour of disabled text
+// replaced by that of secondary text (the placeholder's). Fyne draws a
+// low-importance label in the disabled colour, which all but vanishes
+// (#e3e3e3 on white in the light theme, #39393a on #171717 in the dark):
+// a quiet note must still be read.
+type quietTheme struct{}
+
+func (quietTheme) base() fyne.Theme { return fyne.CurrentApp().Settings().Theme() }
+
+// Color returns the current theme's colour n, the placeholder's for the
+// disabled colour.
+func (q quietTheme) Color(n fyne.ThemeColorName, v fyne.ThemeVariant) color.Color {
+	if n == theme.ColorNameDisabled {
+		n = theme.ColorNamePlaceHolder
+	}
+	return q.base().Color(n, v)
+}
+
+func (q quietTheme) Font(s fyne.TextStyle) fyne.Resource     { return q.base().Font(s) }
+func (q quietTheme) Icon(n fyne.ThemeIconName) fyne.Resource { return q.base().Icon(n) }
+func (q quietTheme) Size(n fyne.ThemeSizeName) float32       { return q.base().Size(n) }
+
+// quiet makes l a quiet note (low importance, drawn in the colour of
+// secondary text) and returns what to put in the layout in its place.
+// Hide the returned object with the label, or it keeps a padding.
+func quiet(l *widget.Label) *container.ThemeOverride {
+	l.Importance = widget.LowImportance
+	return container.NewThemeOverride(l, quietTheme{})
+}
+
 // red returns an opaque red of value v; redA a translucent one (not
 // premultiplied).
 func red(v uint8) color.Color     { return color.NRGBA{R: v, A: 255} }
@@ -53,7 +85,7 @@ var nightColors = map[fyne.ThemeColorName]color.Color{
 	theme.ColorNameForeground:          red(185),
 	theme.ColorNameButton:              red(38),
 	theme.ColorNameDisabledButton:      red(20),
-	theme.ColorNameDisabled:            red(85),
+	theme.ColorNameDisabled:            red(105),
 	theme.ColorNameError:               red(200),
 	theme.ColorNameFocus:               redA(200, 110),
 	theme.ColorNameForegroundOnError:   color.Black,
@@ -67,7 +99,7 @@ var nightColors = map[fyne.ThemeColorName]color.Color{
 	theme.ColorNameInputBorder:         red(60),
 	theme.ColorNameMenuBackground:      red(14),
 	theme.ColorNameOverlayBackground:   red(10),
-	theme.ColorNamePlaceHolder:         red(95),
+	theme.ColorNamePlaceHolder:         red(130),
 	theme.ColorNamePressed:             redA(200, 60),
 	theme.ColorNamePrimary:             red(150),
 	theme.ColorNameScrollBar:           redA(150, 160),

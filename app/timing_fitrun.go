@@ -61,20 +61,27 @@ func (p *timingFitPane) fit() {
 	})
 }
 
-// showResult writes the fit, or clears it.
+// showResult writes the fit, or, with none, what the band under the chart
+// will hold.
 func (p *timingFitPane) showResult() {
 	n, ok := p.current()
 	if p.result == nil || !ok {
 		p.head.SetText("")
-		p.detail.SetText("")
 		p.head.Hide()
-		p.detail.Hide()
+		p.detail.Importance = widget.LowImportance
+		p.detail.SetText("")
+		if ok {
+			p.detail.SetText("No fit yet: Fit times the extremum from the points picked, or from the whole night; " +
+				"its time with its error and its O−C show here, and Keep adds it to the star's timings.")
+		}
+		p.detail.Hidden = !ok
 		p.keep.Disable()
 		p.root.Refresh()
 		return
 	}
 	r := TimingDescribeFit(*p.result, p.data.Target, n)
 	p.head.SetText(r.Headline)
+	p.detail.Importance = widget.MediumImportance
 	p.detail.SetText(r.When + "\n" + r.How + "\n" + r.OC)
 	p.head.Show()
 	p.detail.Show()

@@ -29,8 +29,8 @@ type timingFitPane struct {
 	kind   *widget.RadioGroup
 	method *widget.Select
 	degree *widget.Select
-	from   *widget.Entry
-	to     *widget.Entry
+	from   *keyEntry
+	to     *keyEntry
 	whole  *widget.Button
 	fitBtn *widget.Button
 	keep   *widget.Button
@@ -61,9 +61,9 @@ func newTimingFitPane(v *timingView) *timingFitPane {
 	p.method = widget.NewSelect([]string{timingPoly, timingKvW}, func(string) { p.methodChosen() })
 	p.degree = widget.NewSelect([]string{timingAuto, "2", "3", "4"}, func(string) { p.clearResult() })
 	p.degree.SetSelected(timingAuto)
-	p.from = widget.NewEntry()
+	p.from = newKeyEntry(v.w)
 	p.from.SetPlaceHolder("JD or 22:30")
-	p.to = widget.NewEntry()
+	p.to = newKeyEntry(v.w)
 	p.to.SetPlaceHolder("JD or 01:15")
 	p.from.OnChanged = func(string) { p.rangeTyped() }
 	p.to.OnChanged = func(string) { p.rangeTyped() }
@@ -90,7 +90,7 @@ func newTimingFitPane(v *timingView) *timingFitPane {
 	top := container.NewVBox(row1, row2, row3, p.rng)
 	// The result scrolls in a band of fixed height under the chart, so
 	// that its wrapped lines never push the chart about.
-	result := container.NewVScroll(container.NewVBox(p.head, p.detail))
+	result := container.NewVScroll(container.NewVBox(p.head, quiet(p.detail)))
 	result.SetMinSize(fyne.NewSize(0, 118))
 	p.root = container.NewBorder(top, result, nil, nil, p.chart)
 	p.setData(nil, false)

@@ -20,12 +20,7 @@ import (
 // timingDemo makes the demo logbook in a temporary directory.
 func timingDemo(t testing.TB) *logbook.Logbook {
 	t.Helper()
-	lb, err := demo.Create(filepath.Join(t.TempDir(), "demo.db"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	t.Cleanup(func() { lb.Close() })
-	return lb
+	return demoLogbook(t)
 }
 
 // timingLoad reads a star of the demo for the page.

@@ -179,14 +179,18 @@ func (p *timingOCPane) redraw() {
 	})
 }
 
+// newCell makes a cell: a label drawn quietly (quiet) when its timing is
+// left out of the O−C.
 func (p *timingOCPane) newCell() fyne.CanvasObject {
 	l := widget.NewLabel("")
 	l.Truncation = fyne.TextTruncateEllipsis
-	return l
+	q := quiet(l)
+	l.Importance = widget.MediumImportance
+	return q
 }
 
 func (p *timingOCPane) updateCell(id widget.TableCellID, o fyne.CanvasObject) {
-	l := o.(*widget.Label)
+	l := o.(*container.ThemeOverride).Content.(*widget.Label)
 	text := ""
 	if id.Row >= 0 && id.Row < len(p.rows) && id.Col < len(TimingColumns) {
 		r := p.rows[id.Row]

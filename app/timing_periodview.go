@@ -30,9 +30,9 @@ const (
 // a chosen peak, which can be adopted.
 type timingPeriodPane struct {
 	v       *timingView
-	min     *widget.Entry
-	max     *widget.Entry
-	over    *widget.Entry
+	min     *keyEntry
+	max     *keyEntry
+	over    *keyEntry
 	method  *widget.Select
 	search  *widget.Button
 	cancel  *widget.Button
@@ -56,7 +56,7 @@ type timingPeriodPane struct {
 
 func newTimingPeriodPane(v *timingView) *timingPeriodPane {
 	p := &timingPeriodPane{v: v, peak: -1, errs: map[string]*widget.Label{}}
-	p.min, p.max, p.over = widget.NewEntry(), widget.NewEntry(), widget.NewEntry()
+	p.min, p.max, p.over = newKeyEntry(v.w), newKeyEntry(v.w), newKeyEntry(v.w)
 	p.method = widget.NewSelect([]string{timingLS, timingPDM}, nil)
 	p.method.SetSelected(timingLS)
 	p.search = widget.NewButtonWithIcon("Search", theme.SearchIcon(), p.start)
@@ -80,7 +80,7 @@ func newTimingPeriodPane(v *timingView) *timingPeriodPane {
 			o.(*widget.Label).SetText(p.peakHeading(id.Col))
 		}
 	}
-	for i, wd := range []float32{28, 96, 110, 64, 250} {
+	for i, wd := range []float32{30, 92, 108, 60, 250} {
 		p.peaks.SetColumnWidth(i, wd)
 	}
 	p.peaks.OnSelected = func(id widget.TableCellID) {
@@ -100,7 +100,7 @@ func newTimingPeriodPane(v *timingView) *timingPeriodPane {
 	p.adopt = widget.NewButton("Adopt this period…", p.askAdopt)
 	p.adopt.Disable()
 
-	field := func(name string, e *widget.Entry, width float32) fyne.CanvasObject {
+	field := func(name string, e *keyEntry, width float32) fyne.CanvasObject {
 		p.errs[name] = timingErrLabel()
 		return timingSized(e, width)
 	}
@@ -115,7 +115,7 @@ func newTimingPeriodPane(v *timingView) *timingPeriodPane {
 	right := container.NewVSplit(container.NewVScroll(p.summary), peaks)
 	right.Offset = 0.3
 	split := container.NewHSplit(charts, right)
-	split.Offset = 0.6
+	split.Offset = 0.55
 	p.root = container.NewBorder(top, nil, nil, nil, split)
 	p.setData(nil, false)
 	return p
@@ -205,7 +205,7 @@ func (p *timingPeriodPane) start() {
 			p.msg.SetText("The search failed: " + err.Error())
 			return
 		}
-		p.msg.SetText(fmt.Sprintf("Searched in %.1f s.", time.Since(started).Seconds()))
+		p.msg.SetText("Searched in " + timingDuration(time.Since(started)) + ".")
 		p.show(&r, len(pts))
 	})
 }
@@ -246,6 +246,15 @@ func (p *timingPeriodPane) peakHeading(col int) string {
 		return "θ"
 	}
 	return TimingPeakColumns[col]
+}
+
+// timingDuration writes how long a search took: "0.4 s", or "42 ms" under
+// a tenth of a second (where "0.0 s" would read as nothing done).
+func timingDuration(d time.Duration) string {
+	if d < 100*time.Millisecond {
+		return fmt.Sprintf("%d ms", max(d.Milliseconds(), 1))
+	}
+	return fmt.Sprintf("%.1f s", d.Seconds())
 }
 
 func (p *timingPeriodPane) newCell() fyne.CanvasObject {

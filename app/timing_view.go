@@ -10,6 +10,7 @@ import (
 	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/container"
 	"fyne.io/fyne/v2/dialog"
+	"fyne.io/fyne/v2/theme"
 	"fyne.io/fyne/v2/widget"
 
 	"example.org/vigil/ephem"
@@ -17,17 +18,23 @@ import (
 	"example.org/vigil/observe/logbook"
 )
 
+// timingNoteHeight is the most height the note of the last change takes
+// (it scrolls beyond).
+const timingNoteHeight = 80
+
 // timingView is the Timings page: for the selected star, the fit of an
 // extremum on a night's light curve, the O−C diagram of its timings with
 // their table, and the period search, each on its own tab.
 type timingView struct {
-	w        *Window
-	title    *widget.Label // the star and its ephemeris
-	note     *widget.Label // what the last change to the logbook did
-	empty    *widget.Label // shown instead of the tabs with no star
-	emptyBox *container.Scroll
-	tabs     *container.AppTabs
-	root     fyne.CanvasObject
+	w         *Window
+	title     *widget.Label // the star and its ephemeris
+	source    *widget.Label // when the ephemeris was adopted, and from what
+	sourceBox *container.ThemeOverride
+	note      *widget.Label // what the last change to the logbook did
+	empty     *widget.Label // shown instead of the tabs with no star
+	emptyBox  *container.Scroll
+	tabs      *container.AppTabs
+	root      fyne.CanvasObject
 
 	fit *timingFitPane
 	oc  *timingOCPane
@@ -43,6 +50,11 @@ func newTimingPage(w *Window) Page {
 	v.title = widget.NewLabel("")
 	v.title.TextStyle.Bold = true
 	v.title.Truncation = fyne.TextTruncateEllipsis
+	v.source = widget.NewLabel("")
+	v.source.Wrapping = fyne.TextWrapWord
+	v.sourceBox = quiet(v.source)
+	v.source.Hide()
+	v.sourceBox.Hide()
 	v.note = widget.NewLabel("")
 	v.note.Wrapping = fyne.TextWrapWord
 	v.note.Importance = widget.SuccessImportance
@@ -59,7 +71,9 @@ func newTimingPage(w *Window) Page {
 		container.NewTabItem("Period search", v.per.root),
 	)
 	v.tabs.OnSelected = func(*container.TabItem) { v.restyle() }
-	head := container.NewVBox(v.title, v.note)
+	// The star and its ephemeris on one line, where the ephemeris came
+	// from wrapped under it (a source can be long: a publication).
+	head := container.NewVBox(container.New(&timingHeadLayout{}, v.title, v.sourceBox), capHeight(v.note, timingNoteHeight))
 	// The empty state sits in a scroller (a wrapped text in a narrow pane
 	// keeps a small minimum), hidden whole when the tabs show: a hidden
 	// label in a shown scroller would still take the drags meant for the
@@ -79,7 +93,7 @@ func (v *timingView) Content() fyne.CanvasObject { return v.root }
 // reloads the star's data; a new night moves the fit to it.
 func (v *timingView) changed(c Change) {
 	switch {
-	case c&(ChangedSelection|ChangedTargets) != 0:
+	case c&(ChangedSelection|ChangedTargets|ChangedRecords) != 0:
 		v.load()
 	case c&(ChangedNight|ChangedSite) != 0:
 		v.fit.followNight()
@@ -151,14 +165,10 @@ func (v *timingView) showStar() {
 		v.showEmpty(true)
 	default:
 		d := v.data
-		s := fmt.Sprintf("%s · %s · %s", d.Target.Name, classText(d.Target.Class), TimingEphemerisText(d.Target.Kind, d.Target.Ephemeris))
-		if !d.Adopted.Adopted.IsZero() {
-			s += fmt.Sprintf(" · adopted %s", d.Adopted.Adopted.Format(time.DateOnly))
-			if d.Adopted.Source != "" {
-				s += " from " + d.Adopted.Source
-			}
-		}
-		v.title.SetText(s)
+		v.title.SetText(fmt.Sprintf("%s · %s · %s", d.Target.Name, classText(d.Target.Class), TimingEphemerisText(d.Target.Kind, d.Target.Ephemeris)))
+		v.source.SetText(TimingSourceText(d.Adopted))
+		v.source.Hidden = v.source.Text == ""
+		v.sourceBox.Hidden = v.source.Hidden
 		v.showEmpty(false)
 	}
 }
@@ -172,6 +182,8 @@ func (v *timingView) showEmpty(empty bool) {
 	}
 	v.tabs.Hidden = empty
 	v.title.Hidden = empty
+	v.source.Hidden = empty || v.source.Text == ""
+	v.sourceBox.Hidden = v.source.Hidden
 	v.root.Refresh()
 }
 
@@ -241,6 +253,56 @@ func (v *timingView) adopt(tg observe.Target, eph ephem.Ephemeris, source string
 			name, TimingEphemerisText(tg.Kind, eph)), nil)
 		v.w.Reload()
 	})
+}
+
+// TimingSourceText says when the star's current ephemeris was adopted and
+// from what, "" when the logbook does not know.
+func TimingSourceText(a logbook.AdoptedEphemeris) string {
+	switch {
+	case a.Adopted.IsZero() && a.Source == "":
+		return ""
+	case a.Adopted.IsZero():
+		return "Ephemeris from " + a.Source
+	case a.Source == "":
+		return "Ephemeris adopted " + a.Adopted.Format(time.DateOnly)
+	}
+	return fmt.Sprintf("Ephemeris adopted %s from %s", a.Adopted.Format(time.DateOnly), a.Source)
+}
+
+// timingHeadLayout stacks the title and the source line closer than a
+// VBox would (they read as one heading).
+type timingHeadLayout struct{}
+
+func (timingHeadLayout) MinSize(objs []fyne.CanvasObject) fyne.Size {
+	var s fyne.Size
+	for _, o := range objs {
+		if o.Visible() {
+			m := o.MinSize()
+			s.Width = max(s.Width, m.Width)
+			s.Height += m.Height
+		}
+	}
+	if len(objs) == 2 && objs[0].Visible() && objs[1].Visible() {
+		s.Height -= theme.InnerPadding()
+	}
+	return s
+}
+
+func (timingHeadLayout) Layout(objs []fyne.CanvasObject, size fyne.Size) {
+	y := float32(0)
+	for i, o := range objs {
+		if !o.Visible() {
+			continue
+		}
+		if i > 0 && y > 0 {
+			y -= theme.InnerPadding()
+		}
+		o.Resize(fyne.NewSize(size.Width, o.Size().Height)) // a wrapped text's height follows its width
+		h := o.MinSize().Height
+		o.Move(fyne.NewPos(0, y))
+		o.Resize(fyne.NewSize(size.Width, h))
+		y += h
+	}
 }
 
 // timingSized gives obj a fixed width (and its own height).

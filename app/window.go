@@ -61,6 +61,10 @@ type Window struct {
 	pages  []Page
 	// themed marks the pages shown in the current theme (see rethemeShown).
 	themed map[int]bool
+	// keys are the shortcuts of the window and its pages (AddKey).
+	keys []keyBinding
+	// plans counts the plans of the night started (replan).
+	plans int
 }
 
 // New builds the window on the open logbook lb (the caller opens it, e.g.
@@ -155,8 +159,13 @@ func (w *Window) ShowPage(name string) {
 }
 
 // pageShown tells the page brought to the front, when it wants to know.
+// The keyboard leaves a field of the page left behind (what is typed must
+// not go into a page out of sight); the star search keeps it.
 func (w *Window) pageShown() {
 	w.rethemeShown()
+	if c := w.Win.Canvas(); c.Focused() != nil && c.Focused() != fyne.Focusable(w.stars.search) {
+		c.Unfocus()
+	}
 	i := w.tabs.SelectedIndex()
 	if i >= 0 && i < len(w.pages) {
 		if s, ok := w.pages[i].(interface{ Shown() }); ok {
@@ -209,6 +218,7 @@ func (w *Window) replan() {
 		w.Jobs.Cancel("night")
 		return
 	}
+	w.plans++
 	Run(w.Jobs, "night", "Planning the night", func(ctx context.Context, _ Progress) (*NightData, error) {
 		return PlanNight(ctx, r)
 	}, func(nd *NightData, err error) {
@@ -223,6 +233,13 @@ func (w *Window) replan() {
 		}
 	})
 }
+
+// RecordsChanged tells the pages that measurements or a night's details
+// were written to the logbook (Session.RecordsChanged): those that show
+// records read them again; the night is not planned again. After a change
+// to the sites or the targets (a star, its ephemeris, its comparison stars,
+// a timing, which moves the star's last timing and so its rank) call Reload.
+func (w *Window) RecordsChanged() { w.Session.RecordsChanged() }
 
 // Reload reads the logbook again in a job (after an import, say) and
 // applies it to the session, which plans the night again.

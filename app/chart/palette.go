@@ -76,18 +76,34 @@ func DefaultPalette() Palette {
 // black, nothing bright (no channel but red, and red at most 200 of 255).
 // The sky darkens from a deep red by day to black at night; the stars differ
 // by shade and, above all, by dash pattern.
+//
+// Every colour, the translucent ones too, has red at most 200 before it is
+// blended: blending over what is drawn below is a weighted mean (Porter &
+// Duff 1984, "source over"), so no overlap can then exceed 200 (a mark of
+// red 255 at alpha 90 over a red-200 curve made 219). The translucent
+// marks' alpha is raised to match, so that over black they show as before
+// (red 200 at alpha a·255/200 gives the red of 255 at alpha a).
 func NightRedPalette() Palette {
 	red := func(v uint8) color.Color { return color.RGBA{R: v, A: 255} }
 	return Palette{
-		Background: color.Black, Foreground: red(170), Grid: color.NRGBA{R: 255, A: 28},
+		Background: color.Black, Foreground: red(185), Grid: redMark(28),
 		KeyBackground: color.Black,
 		Day:           red(58), Civil: red(42), Nautical: red(28), Astronomical: red(15), Night: color.Black,
-		Moon: red(120), MinAlt: red(140), Window: color.NRGBA{R: 255, A: 90},
+		Moon: red(120), MinAlt: red(140), Window: redMark(90),
 		Stars:     []color.Color{red(200), red(150), red(185), red(135), red(170), red(160), red(140)},
 		Fits:      []color.Color{red(190), red(150), red(140)},
-		Selection: color.NRGBA{R: 255, A: 45}, Sigma: color.NRGBA{R: 255, A: 50}, Shade: color.NRGBA{R: 255, A: 16},
+		Selection: redMark(45), Sigma: redMark(50), Shade: redMark(16),
 		Faint: red(85), Flag: red(200),
 	}
+}
+
+// nightMaxRed is the brightest red NightRedPalette draws (of 255).
+const nightMaxRed = 200
+
+// redMark returns the translucent night-red mark that shows over black as
+// red v: red nightMaxRed at alpha v·255/nightMaxRed (v ≤ nightMaxRed).
+func redMark(v uint8) color.Color {
+	return color.NRGBA{R: nightMaxRed, A: uint8((int(v)*255 + nightMaxRed/2) / nightMaxRed)}
 }
 
 // star returns the colour of the i-th star.

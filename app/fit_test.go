@@ -1,0 +1,130 @@
+package app
+
+import (
+	"fmt"
+	"strings"
+	"testing"
+	"time"
+
+	"fyne.io/fyne/v2"
+	"fyne.io/fyne/v2/test"
+	"fyne.io/fyne/v2/theme"
+	"fyne.io/fyne/v2/widget"
+)
+
+// screenSize is the screen the window must fit: a common laptop's.
+var screenSize = fyne.NewSize(1280, 800)
+
+// windowMinSize returns the smallest the window can be: its content's
+// minimum, with the padding the driver puts around a padded content.
+func windowMinSize(w *Window) fyne.Size {
+	m := w.Win.Content().MinSize()
+	if w.Win.Padded() {
+		m = m.AddWidthHeight(2*theme.Padding(), 2*theme.Padding())
+	}
+	return m
+}
+
+// pageSizes lists every page's minimum size, for the failure messages.
+func pageSizes(w *Window) string {
+	var parts []string
+	for _, s := range Screens() {
+		m := w.Page(s.Name).Content().MinSize()
+		parts = append(parts, fmt.Sprintf("%s %.0f × %.0f", s.Name, m.Width, m.Height))
+	}
+	return strings.Join(parts, ", ")
+}
+
+// A window asking for more than the screen grows past it (the real window
+// did: 1280 × 979), cutting off the status bar. Every page, in front or
+// behind, in every state it reaches with the demo's busiest star (its
+// forms open, its messages shown, each tab of the Timings page), asks for
+// no more than 1280 × 800.
+func TestWindowFitsTheScreen(t *testing.T) {
+	w, q := openWindow(t, demoLogbook(t))
+	check := func(state string) {
+		t.Helper()
+		if m := windowMinSize(w); m.Width > screenSize.Width || m.Height > screenSize.Height {
+			t.Errorf("%s: the window needs %.0f × %.0f, more than the screen's %.0f × %.0f (pages: %s)",
+				state, m.Width, m.Height, screenSize.Width, screenSize.Height, pageSizes(w))
+		}
+	}
+	check("opened")
+	w.Session.SetDate(time.Date(2026, 11, 5, 0, 0, 0, 0, time.UTC))
+	w.Session.Select("Ashgrove V4")
+	settle(t, w, q)
+	// The pages behind have not been laid out yet: their minimum must not
+	// assume a zero width.
+	check("Ashgrove V4 selected, pages not yet shown")
+	for _, s := range Screens() {
+		w.ShowPage(s.Name)
+		settle(t, w, q)
+		check(s.Name + " page in front")
+	}
+
+	tv := timingPage(t, w)
+	w.ShowPage("timing")
+	for i, item := range tv.tabs.Items {
+		tv.tabs.SelectIndex(i)
+		settle(t, w, q)
+		check("Timings, tab " + item.Text)
+	}
+	tv.say(strings.Repeat("A long note of what was done, running over many lines. ", 30), nil)
+	check("Timings with a long note")
+
+	sv := starPage(t, w)
+	w.ShowPage("star")
+	for _, m := range []starFormMode{starFormEdit, starFormNew, starFormAdopt} {
+		sv.form.open(m)
+		settle(t, w, q)
+		check(fmt.Sprintf("Star page, form %d", m))
+		sv.form.close()
+	}
+	sv.say(strings.Repeat("A long message about the last action. ", 40), true)
+	sv.confirm.ask(strings.Repeat("A long question? ", 30), "Delete", func() {})
+	check("Star page with a long message and a question")
+	sv.confirm.hide()
+
+	mv := w.Page("measure").(*measureView)
+	w.ShowPage("measure")
+	settle(t, w, q)
+	test.Type(mv.form.time, "25:99")
+	test.Tap(mv.form.add)
+	settle(t, w, q)
+	if !mv.form.problems.Visible() {
+		t.Fatal("a bad time shows no problem under the row")
+	}
+	mv.form.problems.SetText(strings.Repeat("what is wrong with this row, at length; ", 40))
+	mv.relayout()
+	check("Measurements with a long problem under the row")
+	mv.form.mode.SetSelected(measureModeVisual)
+	settle(t, w, q)
+	check("Measurements, visual estimate")
+}
+
+// The key/value panels of the Star page (position, what it is, the
+// ephemeris) are separate form layouts: their values line up only when
+// every key fits the width they share (starKeyWidth); a wider key pushed
+// its panel's values right of the others'.
+func TestStarKeysLineUp(t *testing.T) {
+	test.NewApp()
+	lb := demoLogbook(t)
+	targets, err := lb.Targets()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, tg := range targets {
+		d, err := LoadStarData(lb, tg.Name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		in := BuildStarInfo(tg, d, testNow)
+		for _, lines := range [][]StarLine{in.Position, in.Kind, in.Ephemeris} {
+			for _, l := range lines {
+				if w := widget.NewLabel(l.Key).MinSize().Width; w > starKeyWidth {
+					t.Errorf("%s: key %q is %.0f wide, more than starKeyWidth %d", tg.Name, l.Key, w, starKeyWidth)
+				}
+			}
+		}
+	}
+}
