@@ -3,6 +3,7 @@ package app
 import (
 	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/container"
+	"fyne.io/fyne/v2/widget"
 )
 
 // The window must fit a 1280 × 800 screen whatever its pages show: a text
@@ -13,46 +14,64 @@ import (
 // capBox shows content in a vertical scroller whose minimum height is the
 // content's own up to a cap. It is shown exactly when its content is, so
 // that a box of hidden messages takes no room (nor a padding) in a VBox.
+//
+// It is a widget with its own renderer: Fyne draws the children of a
+// *fyne.Container and of a widget's renderer only, so a struct that merely
+// embeds a container would be laid out but never drawn.
 type capBox struct {
-	*fyne.Container
+	widget.BaseWidget
 	content fyne.CanvasObject
+	scroll  *container.Scroll
+	h       float32
 }
 
 // capHeight returns content in a capBox of at most h pixels.
 func capHeight(content fyne.CanvasObject, h float32) *capBox {
-	s := container.NewVScroll(content)
-	return &capBox{Container: &fyne.Container{Layout: capLayout{content, h}, Objects: []fyne.CanvasObject{s}}, content: content}
+	b := &capBox{content: content, scroll: container.NewVScroll(content), h: h}
+	b.ExtendBaseWidget(b)
+	return b
 }
 
 // Visible reports whether the content shows (a box whose every part is
 // hidden has no height).
 func (b *capBox) Visible() bool {
-	return !b.Hidden && b.content.Visible() && b.content.MinSize().Height > 0
+	return b.BaseWidget.Visible() && b.content.Visible() && b.content.MinSize().Height > 0
+}
+
+// MinSize is the content's minimum, at most h high; nothing when hidden.
+func (b *capBox) MinSize() fyne.Size {
+	if !b.content.Visible() {
+		return fyne.Size{}
+	}
+	m := b.content.MinSize()
+	return fyne.NewSize(m.Width, min(m.Height, b.h))
 }
 
 // relayout lays the content out again after it changed height.
 func (b *capBox) relayout() {
-	b.Container.Layout.Layout(b.Objects, b.Size())
-	b.Objects[0].Refresh()
+	b.Refresh()
 }
 
-// capLayout gives its scroller the content's minimum height, at most h.
-type capLayout struct {
-	content fyne.CanvasObject
-	h       float32
+// CreateRenderer implements fyne.Widget.
+func (b *capBox) CreateRenderer() fyne.WidgetRenderer {
+	return &capRenderer{b: b}
 }
 
-func (l capLayout) MinSize([]fyne.CanvasObject) fyne.Size {
-	if !l.content.Visible() {
-		return fyne.Size{}
-	}
-	m := l.content.MinSize()
-	return fyne.NewSize(m.Width, min(m.Height, l.h))
+// capRenderer draws a capBox's scroller over the whole box.
+type capRenderer struct{ b *capBox }
+
+func (r *capRenderer) Layout(s fyne.Size) {
+	r.b.scroll.Move(fyne.NewPos(0, 0))
+	r.b.scroll.Resize(s)
 }
 
-func (l capLayout) Layout(objs []fyne.CanvasObject, s fyne.Size) {
-	for _, o := range objs {
-		o.Move(fyne.NewPos(0, 0))
-		o.Resize(s)
-	}
+func (r *capRenderer) MinSize() fyne.Size { return r.b.MinSize() }
+
+func (r *capRenderer) Refresh() {
+	r.Layout(r.b.Size())
+	r.b.scroll.Refresh()
 }
+
+func (r *capRenderer) Objects() []fyne.CanvasObject { return []fyne.CanvasObject{r.b.scroll} }
+
+func (r *capRenderer) Destroy() {}

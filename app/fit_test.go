@@ -128,3 +128,57 @@ func TestStarKeysLineUp(t *testing.T) {
 		}
 	}
 }
+
+// drawn reports whether obj is among the objects Fyne draws for the
+// window's content: those reached through containers and widget renderers.
+// A box that only embeds a container is laid out but never walked, so its
+// texts never show (the Log page's summary went missing so).
+func drawn(w *Window, obj fyne.CanvasObject) bool {
+	for _, o := range test.LaidOutObjects(w.Win.Content()) {
+		if o == obj {
+			return true
+		}
+	}
+	return false
+}
+
+// Every text kept in a box of capped height is drawn, not only laid out:
+// the Log page's summary, the Star page's message, the problems under a
+// measurement row and the Timings page's note.
+func TestCappedTextsAreDrawn(t *testing.T) {
+	w, q := openWindow(t, demoLogbook(t))
+	w.Session.SetDate(time.Date(2026, 11, 5, 0, 0, 0, 0, time.UTC))
+	w.Session.Select("Ashgrove V4")
+	settle(t, w, q)
+
+	lv := logPage(t, w, q)
+	if lv.summary.Text == "" || !drawn(w, lv.summary) {
+		t.Errorf("Log page: the summary %q is not drawn", lv.summary.Text)
+	}
+
+	sv := starPage(t, w)
+	w.ShowPage("star")
+	settle(t, w, q)
+	sv.say("A message about the last action.", false)
+	if !drawn(w, sv.message) {
+		t.Error("Star page: the message is not drawn")
+	}
+
+	mv := w.Page("measure").(*measureView)
+	w.ShowPage("measure")
+	settle(t, w, q)
+	test.Type(mv.form.time, "25:99")
+	test.Tap(mv.form.add)
+	settle(t, w, q)
+	if !mv.form.problems.Visible() || !drawn(w, mv.form.problems) {
+		t.Errorf("Measurements: the problem %q under the row is not drawn", mv.form.problems.Text)
+	}
+
+	tv := timingPage(t, w)
+	w.ShowPage("timing")
+	settle(t, w, q)
+	tv.say("A note of what was done.", nil)
+	if !drawn(w, tv.note) {
+		t.Error("Timings page: the note is not drawn")
+	}
+}
