@@ -90,6 +90,27 @@ func (w *Window) capture(dir string) error {
 				return err
 			}
 			names = append(names, ShotName(s.Name, t))
+			sv, ok := w.Page(s.Name).(shotViews)
+			if !ok {
+				continue
+			}
+			views := sv.ShotViews()
+			for _, view := range views {
+				w.onUI(view.Show)
+				w.waitIdle()
+				if view.Then != nil {
+					w.onUI(view.Then)
+					w.waitIdle()
+				}
+				name := ShotName(s.Name+"-"+view.Slug, t)
+				if err := w.shoot(filepath.Join(dir, name)); err != nil {
+					return err
+				}
+				names = append(names, name)
+			}
+			if len(views) > 0 {
+				w.onUI(sv.ShotViewsDone)
+			}
 		}
 	}
 	// The list of shots, written last: its presence says all were taken.
@@ -97,6 +118,24 @@ func (w *Window) capture(dir string) error {
 		_, err := io.WriteString(f, strings.Join(names, "\n")+"\n")
 		return err
 	})
+}
+
+// shotViews is a page with views of its own (tabs inside the page) that
+// the capture mode shoots besides the page as it opens.
+type shotViews interface {
+	// ShotViews lists the views to shoot after the page itself.
+	ShotViews() []ShotView
+	// ShotViewsDone puts the page back as it opens.
+	ShotViewsDone()
+}
+
+// ShotView is one view of a page for the capture mode: Show brings it to
+// the front; its shot is saved as <page>-<Slug>-<theme>.png.
+type ShotView struct {
+	Slug string
+	Show func()
+	// Then, when set, runs once the work Show started is done.
+	Then func()
 }
 
 // ShotsIndex is the file the capture mode writes last in its directory,

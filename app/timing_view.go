@@ -330,3 +330,30 @@ func timingSetErr(l *widget.Label, msg string) {
 	l.Hidden = msg == ""
 	l.Refresh()
 }
+
+// ShotViews implements shotViews: the O−C diagram and the period search
+// (run on the default range, its best peak folded), besides the fit of an
+// extremum the page opens on.
+func (v *timingView) ShotViews() []ShotView {
+	return []ShotView{
+		{Slug: "oc", Show: func() { v.tabs.SelectIndex(1) }},
+		{Slug: "period", Show: func() {
+			// a search of the default range, run once for all themes
+			v.tabs.SelectIndex(2)
+			if v.per.result == nil && !v.per.search.Disabled() {
+				v.per.start()
+			}
+		}, Then: func() {
+			// the best peak picked and the light curve folded on it
+			if v.per.result != nil && v.per.peakCount() > 0 && v.per.peak < 0 {
+				v.per.peaks.Select(widget.TableCellID{Row: 0, Col: 1})
+				if !v.per.fold.Disabled() {
+					v.per.foldOn()
+				}
+			}
+		}},
+	}
+}
+
+// ShotViewsDone implements shotViews: back to the fit of an extremum.
+func (v *timingView) ShotViewsDone() { v.tabs.SelectIndex(0) }
