@@ -23,42 +23,18 @@ const (
 	// points.
 	lsBlock = 1 << 20
 	// glsDegenerate is the relative size below which the 2×2 matrix of
-	// ZK09's CC, CS, SS counts as singular (see glsSums.power).
+	// ZK09's CC, CS, SS counts as singular (see glsFit.power).
 	glsDegenerate = 1e-14
 	// lsFloat64Eps is the spacing of float64 numbers at 1.
 	lsFloat64Eps = 0x1p-52
 )
 
-// glsSums are the weighted trigonometric sums of the generalised
+// glsFit holds the terms CC, SS, CS, YC, YS of the generalised
 // Lomb–Scargle periodogram (Zechmeister & Kürster 2009, A&A 496, 577,
-// Sect. 2, "ZK09") at one angular frequency ω = 2πf, for weights w with
-// Σw = 1 and magnitudes y centred on their weighted mean (so ZK09's Y = 0).
-type glsSums struct {
-	c, s   float64 // Σ w cos ωt, Σ w sin ωt (ZK09's C, S)
-	yc, ys float64 // Σ w y cos ωt, Σ w y sin ωt (ZK09's YC, YS when Y = 0)
-	c2, s2 float64 // Σ w cos 2ωt, Σ w sin 2ωt (for cos², sin², sin·cos)
-}
-
-// glsFit holds ZK09's CC, SS, CS, YC, YS at one frequency, and the
-// spectral window |C + iS|².
+// Sect. 2, "ZK09") at one frequency, and the spectral window |C + iS|².
 type glsFit struct {
 	cc, ss, cs, yc, ys float64
 	win                float64
-}
-
-// fit returns ZK09's CC, SS, CS (Sect. 2) from the sums, using
-// cos² = (1 + cos 2ωt)/2, sin² = (1 − cos 2ωt)/2 and sin·cos = sin 2ωt / 2.
-// These one-pass differences lose digits where CC or SS is tiny (f·T ≪ 1);
-// powerChecked measures how much.
-func (g glsSums) fit() glsFit {
-	return glsFit{
-		cc:  0.5*(1+g.c2) - g.c*g.c,
-		ss:  0.5*(1-g.c2) - g.s*g.s,
-		cs:  0.5*g.s2 - g.c*g.s,
-		yc:  g.yc,
-		ys:  g.ys,
-		win: g.c*g.c + g.s*g.s,
-	}
 }
 
 // power returns the GLS power p(ω) = (SS·YC² + CC·YS² − 2·CS·YC·YS) /
@@ -87,15 +63,29 @@ func (g glsFit) power(yy float64) float64 {
 	return (ss*g.yc*g.yc + cc*g.ys*g.ys - 2*cs*g.yc*g.ys) / (yy * d)
 }
 
-// powerChecked returns g.fit().power(yy) and whether it can be trusted:
-// ok is false when a first-order bound on the power's error exceeds
-// lsPowerBudget, given that each of c, s, c2, s2 may be off by eps and each
-// of yc, ys by eps·ya (ya = Σw|y|). The bound is Σ|∂p/∂x|·|δx| over ZK09's
-// YC, YS, CC, SS and CS; it grows as D shrinks, i.e. where the fit is ill
-// conditioned, and ok is false wherever D ≤ 0.
-func (g glsSums) powerChecked(yy, ya, eps float64) (p float64, ok bool) {
-	m := g.fit()
-	cc, ss, cs, yc, ys := m.cc, m.ss, m.cs, m.yc, m.ys
+// glsPowerChecked returns the GLS power p(ω) (as glsFit.power) from the
+// weighted trigonometric sums of ZK09 (Sect. 2) at one angular frequency
+// ω = 2πf, for weights w with Σw = 1 and magnitudes y centred on their
+// weighted mean (so ZK09's Y = 0):
+//
+//	c, s   = Σ w cos ωt, Σ w sin ωt (ZK09's C, S)
+//	yc, ys = Σ w y cos ωt, Σ w y sin ωt (ZK09's YC, YS when Y = 0)
+//	c2, s2 = Σ w cos 2ωt, Σ w sin 2ωt
+//
+// ZK09's CC, SS and CS come from cos² = (1 + cos 2ωt)/2, sin² = (1 −
+// cos 2ωt)/2 and sin·cos = sin 2ωt / 2; these one-pass differences lose
+// digits where CC or SS is tiny (f·T ≪ 1). So it also returns whether p can
+// be trusted: ok is false when a first-order bound on the power's error
+// exceeds lsPowerBudget, given that each of c, s, c2, s2 may be off by eps
+// and each of yc, ys by eps·ya (ya = Σw|y|). The bound is Σ|∂p/∂x|·|δx|
+// over ZK09's YC, YS, CC, SS and CS; it grows as D = CC·SS − CS² shrinks,
+// i.e. where the fit is ill conditioned, and ok is false wherever D ≤ 0.
+// The fast periodogram calls it at every frequency, with plain float64
+// arguments that stay in registers.
+func glsPowerChecked(c, s, yc, ys, c2, s2, yy, ya, eps float64) (p float64, ok bool) {
+	cc := 0.5*(1+c2) - c*c
+	ss := 0.5*(1-c2) - s*s
+	cs := 0.5*s2 - c*s
 	d := cc*ss - cs*cs
 	if !(d > 0) {
 		return 0, false
@@ -108,7 +98,7 @@ func (g glsSums) powerChecked(yy, ya, eps float64) (p float64, ok bool) {
 	dCC := ys*ys - pyy*ss
 	dSS := yc*yc - pyy*cc
 	dCS := 2 * (pyy*cs - yc*ys)
-	ac, as := math.Abs(g.c), math.Abs(g.s)
+	ac, as := math.Abs(c), math.Abs(s)
 	bound := eps * inv * (ya*(math.Abs(dYC)+math.Abs(dYS)) +
 		math.Abs(dCC)*(0.5+2*ac) + math.Abs(dSS)*(0.5+2*as) + math.Abs(dCS)*(0.5+ac+as))
 	return p, bound <= lsPowerBudget

@@ -7,7 +7,9 @@ package reduce
 import (
 	"context"
 	"math"
+	"runtime"
 	"sync"
+	"sync/atomic"
 
 	"example.org/vigil/internal/nufft"
 )
@@ -76,51 +78,93 @@ func (d *periodData) lsDirectAt(f float64, k int, power, window []float64) {
 	}
 }
 
+// lsBuffers are lsBlock's work arrays, kept in lsPool between calls: the
+// transforms' outputs alone are 48 bytes per frequency.
+type lsBuffers struct {
+	u1, u2     []float64
+	a, ay, a2  []complex128
+	f1, fy, f2 []complex128
+}
+
+var lsPool sync.Pool
+
+// getLSBuffers returns work arrays for np points and n frequencies.
+func getLSBuffers(np, n int) *lsBuffers {
+	b, _ := lsPool.Get().(*lsBuffers)
+	if b == nil {
+		b = new(lsBuffers)
+	}
+	growF := func(x []float64, n int) []float64 {
+		if cap(x) < n {
+			return make([]float64, n)
+		}
+		return x[:n]
+	}
+	growC := func(x []complex128, n int) []complex128 {
+		if cap(x) < n {
+			return make([]complex128, n)
+		}
+		return x[:n]
+	}
+	b.u1, b.u2 = growF(b.u1, np), growF(b.u2, np)
+	b.a, b.ay, b.a2 = growC(b.a, np), growC(b.ay, np), growC(b.a2, np)
+	b.f1, b.fy, b.f2 = growC(b.f1, n), growC(b.fy, n), growC(b.f2, n)
+	return b
+}
+
+// lsChunk is how many frequencies a worker of lsBlock's power loop takes
+// at a time: small enough to even out the work (direct sums included)
+// between cores, large enough to make the hand-out cost nothing.
+const lsChunk = 4096
+
 // lsBlock fills n frequencies start + i·step, i = 0 … n−1. With
 // f_c = start + ⌊n/2⌋·step and u_j = periodFrac(step·t_j) cycles,
 //
 //	Σ_j a_j·exp(2πi·(f_c + k·step)·t_j) = Σ_j [a_j·exp(2πi·f_c·t_j)]·exp(2πi·k·u_j),
 //
 // a type-1 transform over modes k = −⌊n/2⌋ … ; the sums at 2f use points
-// periodFrac(2·step·t_j) and the factor exp(2πi·2f_c·t_j). It returns how many
-// frequencies it recomputed by direct sums.
+// periodFrac(2·step·t_j) and the factor exp(2πi·2f_c·t_j). The transform
+// at 2f runs alongside the two at f. It returns how many frequencies it
+// recomputed by direct sums.
 func (d *periodData) lsBlock(start, step float64, n int, power, window []float64) (int, error) {
 	np := len(d.dt)
 	fc := start + float64(n/2)*step
-	u1 := make([]float64, np)
-	u2 := make([]float64, np)
-	a := make([]complex128, np)  // w·e^(iφ): C + iS
-	ay := make([]complex128, np) // w·y·e^(iφ): YC + iYS
-	a2 := make([]complex128, np) // w·e^(2iφ): C2 + iS2
-	for j, t := range d.dt {
-		u1[j] = periodFrac(step * t)
-		u2[j] = periodFrac(2 * step * t)
-		sn, cs := math.Sincos(2 * math.Pi * periodFrac(fc*t))
-		e := complex(cs, sn)
-		a[j] = complex(d.w[j], 0) * e
-		ay[j] = complex(d.w[j]*d.y[j], 0) * e
-		a2[j] = complex(d.w[j], 0) * e * e
-	}
 	plan, err := nufft.CachedPlan(n, lsNUFFTTol)
 	if err != nil {
 		return 0, err
 	}
-	f1 := [][]complex128{make([]complex128, n)}
-	if power != nil {
-		f1 = append(f1, make([]complex128, n))
+	b := getLSBuffers(np, n)
+	defer lsPool.Put(b)
+	u1, a, a2 := b.u1, b.a, b.a2
+	for j, t := range d.dt {
+		u1[j] = periodFrac(step * t)
+		sn, cs := math.Sincos(2 * math.Pi * periodFrac(fc*t))
+		a[j] = complex(d.w[j]*cs, d.w[j]*sn) // w·e^(iφ): C + iS
+		a2[j] = complex(cs, sn)              // e^(iφ), for a2 below
 	}
-	f2 := []complex128(nil)
-	var err1, err2 error
+	if power == nil {
+		if err := plan.Type1([][]complex128{b.f1}, u1, [][]complex128{a}); err != nil {
+			return 0, err
+		}
+		for i, v := range b.f1 {
+			window[i] = real(v)*real(v) + imag(v)*imag(v)
+		}
+		return 0, nil
+	}
+	var err2 error
 	var wg sync.WaitGroup
-	if power != nil {
-		f2 = make([]complex128, n)
-		wg.Go(func() { err2 = plan.Type1([][]complex128{f2}, u2, [][]complex128{a2}) })
+	wg.Go(func() {
+		u2 := b.u2
+		for j, t := range d.dt {
+			u2[j] = periodFrac(2 * step * t)
+			a2[j] = a[j] * a2[j] // w·e^(2iφ): C2 + iS2
+		}
+		err2 = plan.Type1([][]complex128{b.f2}, u2, [][]complex128{a2})
+	})
+	for j := range d.dt {
+		b.ay[j] = complex(real(a[j])*d.y[j], imag(a[j])*d.y[j]) // w·y·e^(iφ): YC + iYS
 	}
-	if power != nil {
-		err1 = plan.Type1(f1, u1, [][]complex128{a, ay})
-	} else {
-		err1 = plan.Type1(f1, u1, [][]complex128{a})
-	}
+	err1 := plan.Type1([][]complex128{b.f1, b.fy}, u1, [][]complex128{a, b.ay})
 	wg.Wait()
 	if err1 != nil {
 		return 0, err1
@@ -128,40 +172,36 @@ func (d *periodData) lsBlock(start, step float64, n int, power, window []float64
 	if err2 != nil {
 		return 0, err2
 	}
-	for i, v := range f1[0] {
-		window[i] = real(v)*real(v) + imag(v)*imag(v)
-	}
-	if power == nil {
-		return 0, nil
-	}
 	// Sum errors: the transforms' tolerance, plus rounding of phases up to
 	// 2·f·T cycles (a few ulps each, as in the direct sums).
 	fmax := math.Abs(start) + float64(n)*step
 	eps := lsNUFFTTol + 2*math.Pi*8*lsFloat64Eps*2*fmax*d.span
-	// Powers, and direct sums where the bound is too loose, in two halves.
-	var fallbacks [2]int
-	half := n / 2
-	if n < 1<<14 {
-		half = n
-	}
-	work := func(part, lo, hi int) {
-		for i := lo; i < hi; i++ {
-			s := glsSums{
-				c: real(f1[0][i]), s: imag(f1[0][i]),
-				yc: real(f1[1][i]), ys: imag(f1[1][i]),
-				c2: real(f2[i]), s2: imag(f2[i]),
+	f1, fy, f2 := b.f1, b.fy, b.f2
+	var next, fallbacks atomic.Int64
+	work := func() {
+		for {
+			lo := int(next.Add(lsChunk)) - lsChunk
+			if lo >= n {
+				return
 			}
-			p, ok := s.powerChecked(d.yy, d.ya, eps)
-			if !ok {
-				d.lsDirectAt(start+float64(i)*step, i, power, window)
-				fallbacks[part]++
-				continue
+			hi := min(lo+lsChunk, n)
+			for i := lo; i < hi; i++ {
+				v1, vy, v2 := f1[i], fy[i], f2[i]
+				window[i] = real(v1)*real(v1) + imag(v1)*imag(v1)
+				p, ok := glsPowerChecked(real(v1), imag(v1), real(vy), imag(vy), real(v2), imag(v2), d.yy, d.ya, eps)
+				if !ok {
+					d.lsDirectAt(start+float64(i)*step, i, power, window)
+					fallbacks.Add(1)
+					continue
+				}
+				power[i] = p
 			}
-			power[i] = p
 		}
 	}
-	wg.Go(func() { work(1, half, n) })
-	work(0, 0, half)
+	for range min(runtime.GOMAXPROCS(0), (n+lsChunk-1)/lsChunk) - 1 {
+		wg.Go(work)
+	}
+	work()
 	wg.Wait()
-	return fallbacks[0] + fallbacks[1], nil
+	return int(fallbacks.Load()), nil
 }

@@ -125,6 +125,57 @@ func TestType1SharedPointsMatchSeparateCalls(t *testing.T) {
 	}
 }
 
+// TestKernelPolyAgainstES compares the piecewise polynomial that spread
+// evaluates with the ES kernel φ(z) = exp(β(√(1−z²) − 1)) of Barnett,
+// Magland & af Klinteberg (2019, eq. 1.8 [equation number from memory]),
+// written here in that textbook form, at offsets other than those
+// fitKernel checked, for plans of every kernel width from 2 to 22 cells.
+func TestKernelPolyAgainstES(t *testing.T) {
+	// kernelTestTol is added to the fit's design bound 2·exp(−β): it
+	// covers kernelRound and the rounding of the textbook formula, whose
+	// exponent β(√(1−z²) − 1) carries an absolute error of about β·1e-16.
+	const kernelTestTol = 2e-14
+	widths := map[int]bool{}
+	for _, modes := range []int{1, 100, 6554, 52429, 100000} {
+		for e := -13.0; e < -1; e += 0.5 { // tolerances 1e-13 … 10^-1.5
+			tol := math.Pow(10, e)
+			p, err := NewPlan(modes, tol)
+			if err != nil {
+				t.Fatal(err)
+			}
+			w := p.width
+			if !widths[w] {
+				t.Logf("w=%d (K=%d, tol %.1g, σ=%.2f): degree %d", w, modes, tol, float64(p.grid)/float64(modes), p.ker.deg)
+			}
+			widths[w] = true
+			if p.ker.deg >= maxKernelDeg {
+				t.Errorf("K=%d tol=%g w=%d: fit reached the degree cap %d", modes, tol, w, maxKernelDeg)
+			}
+			r := rand.New(rand.NewPCG(uint64(modes), uint64(w)))
+			ker := make([]float64, w)
+			bound := 2*math.Exp(-p.beta) + kernelTestTol
+			var worst float64
+			for range 2000 {
+				x := (float64(w)/2 - 1) + r.Float64() // position past the first cell, (w/2 − 1, w/2]
+				p.ker.eval(ker, x-float64(w-1)/2)
+				for q, got := range ker {
+					z := (x - float64(q)) * 2 / float64(w)
+					want := math.Exp(p.beta * (math.Sqrt(1-z*z) - 1))
+					worst = max(worst, math.Abs(got-want))
+				}
+			}
+			if worst > bound {
+				t.Errorf("K=%d tol=%g w=%d deg=%d: max |poly − φ| = %.3g, tol %.3g", modes, tol, w, p.ker.deg, worst, bound)
+			}
+		}
+	}
+	for w := 2; w <= 22; w++ {
+		if !widths[w] {
+			t.Errorf("no plan had kernel width %d", w)
+		}
+	}
+}
+
 func TestCorrectionAgainstFineQuadrature(t *testing.T) {
 	// ψ̂(k) by the composite Simpson rule with 200000 cells: an independent
 	// check of the Gauss–Legendre values the plan divides by.
