@@ -407,9 +407,16 @@ func (sp *SkySpan) SeenAt(ts TimeScale, jd float64, v *StarVec) (Time, error) {
 	// Newton's method on got(t) = jd. The site's share of the light time
 	// (at most 21 ms) is evaluated once, at the first step, and carried to
 	// the later ones by its rate: the 500 s of the first step move it by
-	// under 0.8 ms, and its second-order change stays under 15 µs.
+	// under 0.8 ms, and its second-order change stays under 15 µs. The
+	// star's projection on the Earth's path is kept while t stays in the
+	// same day.
 	t := jd
-	got, rate, site, siteRate := sp.ephemerisTime(ts, v, t, true)
+	var lt lightTime
+	lt.prepare(sp, ts, v, t)
+	got, rate := lt.at(t)
+	site, siteRate := lt.site(sp, t)
+	got += site
+	rate += siteRate
 	t0 := t
 	for i := 0; i < 8; i++ {
 		dt := (jd - got) / rate
@@ -417,7 +424,10 @@ func (sp *SkySpan) SeenAt(ts TimeScale, jd float64, v *StarVec) (Time, error) {
 		if math.Abs(dt) < 1e-9 {
 			break
 		}
-		got, rate, _, _ = sp.ephemerisTime(ts, v, t, false)
+		if sp.dayOf(t) != lt.d {
+			lt.prepare(sp, ts, v, t)
+		}
+		got, rate = lt.at(t)
 		got += site + siteRate*(t-t0)
 		rate += siteRate
 	}
@@ -427,12 +437,20 @@ func (sp *SkySpan) SeenAt(ts TimeScale, jd float64, v *StarVec) (Time, error) {
 	return mustJD(t), nil
 }
 
-// ephemerisTime returns the HJD (UTC) or BJD_TDB of the instant jd (UTC) for
-// the star seen from the site, as Sky.HJD and Sky.BJDTDB compute it, and its
-// rate of change d(HJD)/d(JD_UTC). With withSite false it leaves out the
-// site's share of the light time (days), which it returns apart with its
-// rate when withSite is true.
-func (sp *SkySpan) ephemerisTime(ts TimeScale, v *StarVec, jd float64, withSite bool) (got, rate, site, siteRate float64) {
+// lightTime holds what the HJD (UTC) or BJD_TDB of a star seen from the
+// span's site needs of one day, as Sky.HJD and Sky.BJDTDB compute it: the
+// day, the scale, the star (mean equator of J2000) and its projections on
+// the Earth's position, velocity and acceleration about the Sun or the
+// barycentre (Frame.earthAt): AU, AU/day and AU/day².
+type lightTime struct {
+	d          *spanDay
+	ts         TimeScale
+	u          vec3
+	p0, p1, p2 float64
+}
+
+// prepare sets lt up for the day that serves jd.
+func (lt *lightTime) prepare(sp *SkySpan, ts TimeScale, v *StarVec, jd float64) {
 	d := sp.dayOf(jd)
 	f := d.f
 	c := &f.helio
@@ -440,24 +458,30 @@ func (sp *SkySpan) ephemerisTime(ts TimeScale, v *StarVec, jd float64, withSite 
 		c = &f.bary
 	}
 	u := v.at(f.jdTT)
-	dt := jd - d.jd
-	// The Earth's position and velocity (Frame.earthAt) projected on the
-	// star: AU and AU/day.
-	p0, p1, p2 := c[0].dot(u), c[1].dot(u), c[2].dot(u)
-	got = jd + (p0+dt*(p1+0.5*dt*p2))*auLightDays
-	rate = 1 + (p1+dt*p2)*auLightDays
-	if ts == BJDTDB {
-		got += ttMinusUTC(jd)/secPerDay + d.tdbTT
+	*lt = lightTime{d: d, ts: ts, u: u, p0: c[0].dot(u), p1: c[1].dot(u), p2: c[2].dot(u)}
+}
+
+// at returns the ephemeris time of the instant jd (UTC) without the site's
+// share of the light time, and its rate of change d(HJD)/d(JD_UTC).
+func (lt *lightTime) at(jd float64) (got, rate float64) {
+	dt := jd - lt.d.jd
+	got = jd + (lt.p0+dt*(lt.p1+0.5*dt*lt.p2))*auLightDays
+	rate = 1 + (lt.p1+dt*lt.p2)*auLightDays
+	if lt.ts == BJDTDB {
+		got += ttMinusUTC(jd)/secPerDay + lt.d.tdbTT
 	}
-	if withSite {
-		const w = SiderealRateDegPerDay * deg2rad // rad/day
-		ud := f.np.mul(u)                         // the star, true equator of date
-		sl, cl := math.Sincos(d.last0 + w*dt)
-		rc, rs := sp.obsKM[0]/auKM*auLightDays, sp.obsKM[1]/auKM*auLightDays
-		site = rc*(cl*ud[0]+sl*ud[1]) + rs*ud[2]
-		siteRate = rc * w * (cl*ud[1] - sl*ud[0])
-		got += site
-		rate += siteRate
-	}
-	return got, rate, site, siteRate
+	return got, rate
+}
+
+// site returns the site's share of the light time at jd (days) and its
+// rate.
+func (lt *lightTime) site(sp *SkySpan, jd float64) (site, siteRate float64) {
+	const w = SiderealRateDegPerDay * deg2rad // rad/day
+	d := lt.d
+	ud := d.f.np.mul(lt.u) // the star, true equator of date
+	sl, cl := math.Sincos(d.last0 + w*(jd-d.jd))
+	rc, rs := sp.obsKM[0]/auKM*auLightDays, sp.obsKM[1]/auKM*auLightDays
+	site = rc*(cl*ud[0]+sl*ud[1]) + rs*ud[2]
+	siteRate = rc * w * (cl*ud[1] - sl*ud[0])
+	return site, siteRate
 }

@@ -84,7 +84,8 @@ func (p *Planner) Predict(t Target, from, to ephem.Time) ([]Event, error) {
 			return err
 		}
 		tb.windowSpans(&tr, jd, p.c.HalfWidthDays(t.Ephemeris.PeriodAt(cyc)), &ws)
-		out = append(out, tb.event(&tr, &p.c, cyc, sec, jd, &ws))
+		out = append(out, Event{})
+		tb.event(&out[len(out)-1], &tr, &p.c, cyc, sec, jd, &ws)
 		return nil
 	})
 	if err != nil {
@@ -148,7 +149,10 @@ func (p *Planner) Night(targets []Target, date time.Time) (NightPlan, error) {
 // Forecast returns the plans of nights consecutive nights starting with the
 // night of date (1 ≤ nights ≤ MaxSpanDays). The targets are spread over
 // goroutines; the sky (Sun, Moon, sidereal time, light-time geometry and the
-// dark spans) is computed once for all of them.
+// dark spans) is computed once for all of them. Unless Constraints.KeepAll
+// is set, only the extrema whose window may meet the hours in which the Sun
+// is below the limit and the star above the site's lowest altitude are
+// solved (see skyTable.candidates); the others have no usable part.
 func (p *Planner) Forecast(targets []Target, date time.Time, nights int) ([]NightPlan, error) {
 	if nights < 1 || nights > MaxSpanDays {
 		return nil, fmt.Errorf("observe: forecast of %d nights: want 1 to %d", nights, MaxSpanDays)
@@ -176,189 +180,82 @@ func (p *Planner) Forecast(targets []Target, date time.Time, nights int) ([]Nigh
 		d := date.AddDate(0, 0, i)
 		plans[i] = NightPlan{Date: time.Date(d.Year(), d.Month(), d.Day(), 0, 0, 0, 0, time.UTC),
 			Start: mustTime(starts[i]), End: mustTime(starts[i+1])}
-		plans[i].Twilights = tb.twilight(starts[i], starts[i+1])
 	}
 
-	// Each worker keeps its events in fixed blocks (no copying on growth;
-	// reused between calls) and a small key per event; the keys are then
-	// sorted and the events copied once, in time order, into one slice
-	// that the nights share.
+	// Each worker takes the targets a chunk at a time and keeps its events
+	// night by night, in fixed blocks (no copying on growth; reused between
+	// calls), with a key for each. Each night's keys are then sorted and its
+	// events copied once, in time order, into the night's slice.
 	workers := runtime.GOMAXPROCS(0)
-	outs := make([]forecastOut, workers)
+	outs := make([]*forecastOut, workers)
+	for w := range outs {
+		outs[w] = getOut(starts)
+	}
+	defer func() {
+		for _, o := range outs {
+			o.release()
+		}
+	}()
 	var next atomic.Int64
 	var wg sync.WaitGroup
-	const chunk = 32
-	for w := 0; w < workers; w++ {
+	const chunk = 16
+	for w := range outs {
 		wg.Add(1)
-		go func(o *forecastOut, w int32) {
+		go func(fc *forecaster) {
 			defer wg.Done()
-			o.keys = getKeys()
-			var tr track
-			var ws winSpans
 			for {
 				i0 := int(next.Add(chunk)) - chunk
 				if i0 >= len(targets) {
-					slices.SortFunc(*o.keys, forecastKey.compare)
 					return
 				}
 				for i := i0; i < min(i0+chunk, len(targets)); i++ {
-					tg := &targets[i]
-					tb.reset(&tr, tg, i)
-					err := cycles(tg, tg.Secondary, lo, hi, func(cyc float64, sec bool) error {
-						// An event none of whose window is usable has the
-						// verdict "not observable, coverage 0" at once: a
-						// plan leaves it out unless KeepAll is set. The
-						// window lies within seenMarginDays of the
-						// ephemeris time, so a window without darkness
-						// there is found before the light time is solved.
-						T := tg.Ephemeris.At(cyc)
-						hw := p.c.HalfWidthDays(tg.Ephemeris.PeriodAt(cyc))
-						if !p.c.KeepAll && !tb.dark.meets(T-hw-seenMarginDays, T+hw+seenMarginDays) {
-							return nil
-						}
-						jd, err := tb.seen(&tr, T)
-						if err != nil || jd < lo || jd >= hi {
-							return err
-						}
-						if !p.c.KeepAll && !tb.dark.meets(jd-hw, jd+hw) {
-							return nil
-						}
-						tb.windowSpans(&tr, jd, hw, &ws)
-						if !p.c.KeepAll && !(ws.usable.total() > 0) {
-							return nil
-						}
-						e := tb.event(&tr, &p.c, cyc, sec, jd, &ws)
-						if !p.c.KeepAll && !e.Observable && !(e.Window.UsableFraction > 0) {
-							return nil
-						}
-						o.add(e, forecastKey{jd: jd, target: int32(i), w: w})
-						return nil
-					})
-					if err != nil && o.err == nil {
-						o.err = fmt.Errorf("target %d: %w", i+1, err)
+					if err := fc.target(&targets[i], i); err != nil && fc.o.err == nil {
+						fc.o.err, fc.o.errAt = fmt.Errorf("target %d: %w", i+1, err), i
 					}
 				}
 			}
-		}(&outs[w], int32(w))
+		}(&forecaster{p: p, tb: tb, starts: starts, o: outs[w], w: int32(w)})
 	}
 	wg.Wait()
-	defer func() {
-		for i := range outs {
-			outs[i].release()
-		}
-	}()
-	total := 0
+	var first *forecastOut // the error of the first target that has one
 	for _, o := range outs {
-		if o.err != nil {
-			return nil, o.err
+		if o.err != nil && (first == nil || o.errAt < first.errAt) {
+			first = o
 		}
-		total += len(*o.keys)
 	}
-	// Merge the workers' sorted keys.
-	all := make([]forecastKey, 0, total)
-	heads := make([][]forecastKey, len(outs))
-	for w := range outs {
-		heads[w] = *outs[w].keys
+	if first != nil {
+		return nil, first.err
 	}
-	for len(all) < total {
-		best := -1
-		for w, h := range heads {
-			if len(h) > 0 && (best < 0 || h[0].compare(heads[best][0]) < 0) {
-				best = w
+
+	// The nights' events, sorted and copied night by night in parallel,
+	// with the twilights.
+	var nextNight atomic.Int64
+	for range min(workers, nights) {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			var keys, tmp []forecastKey
+			for {
+				n := int(nextNight.Add(1)) - 1
+				if n >= nights {
+					return
+				}
+				plans[n].Twilights = tb.twilight(starts[n], starts[n+1])
+				keys = keys[:0]
+				for _, o := range outs {
+					keys = append(keys, o.nights[n].keys...)
+				}
+				keys, tmp = sortKeys(keys, tmp)
+				dst := make([]Event, len(keys))
+				for j, k := range keys {
+					dst[j] = *outs[k.w].nights[n].at(k.i)
+				}
+				plans[n].Events = dst
 			}
-		}
-		all = append(all, heads[best][0])
-		heads[best] = heads[best][1:]
+		}()
 	}
-	events := make([]Event, len(all))
-	for i, k := range all {
-		events[i] = outs[k.w].blocks[k.i/eventBlockLen][k.i%eventBlockLen]
-	}
-	// The nights' shares: each night's events end where the next night
-	// starts (three-index slices, so that appending to one night cannot
-	// overwrite the next).
-	i := 0
-	for n := range plans {
-		j := i
-		for j < len(all) && (n == nights-1 || all[j].jd < starts[n+1]) {
-			j++
-		}
-		plans[n].Events = events[i:j:j]
-		i = j
-	}
+	wg.Wait()
 	return plans, nil
-}
-
-// forecastKey places one event of a forecast: its instant and target (the
-// sort order), and where the worker w keeps it (index i of its blocks).
-type forecastKey struct {
-	jd     float64
-	target int32
-	w      int32
-	i      int32
-}
-
-// compare orders keys by instant, then by target.
-func (a forecastKey) compare(b forecastKey) int {
-	switch {
-	case a.jd < b.jd:
-		return -1
-	case a.jd > b.jd:
-		return 1
-	}
-	return int(a.target - b.target)
-}
-
-// eventBlockLen is the number of events in one block of a forecast
-// worker's store (about 1 MB).
-const eventBlockLen = 4096
-
-type eventBlock [eventBlockLen]Event
-
-// Pools of event blocks and key slices, reused between forecasts: a
-// forecast of 10,000 targets would otherwise allocate twice the memory of
-// its result.
-var (
-	blockPool = sync.Pool{New: func() any { return new(eventBlock) }}
-	keysPool  = sync.Pool{New: func() any { return new([]forecastKey) }}
-)
-
-func getKeys() *[]forecastKey {
-	k := keysPool.Get().(*[]forecastKey)
-	*k = (*k)[:0]
-	return k
-}
-
-// forecastOut is what one forecast worker found.
-type forecastOut struct {
-	blocks []*eventBlock
-	keys   *[]forecastKey
-	n      int32 // events stored
-	err    error
-}
-
-// add stores event e under key k.
-func (o *forecastOut) add(e Event, k forecastKey) {
-	if int(o.n)%eventBlockLen == 0 {
-		o.blocks = append(o.blocks, blockPool.Get().(*eventBlock))
-	}
-	o.blocks[o.n/eventBlockLen][o.n%eventBlockLen] = e
-	k.i = o.n
-	*o.keys = append(*o.keys, k)
-	o.n++
-}
-
-// release clears the blocks (they hold names and time zones) and returns
-// them and the keys to their pools.
-func (o *forecastOut) release() {
-	for b, blk := range o.blocks {
-		clear(blk[:min(eventBlockLen, int(o.n)-b*eventBlockLen)])
-		blockPool.Put(blk)
-	}
-	if o.keys != nil {
-		keysPool.Put(o.keys)
-	}
-	*o = forecastOut{}
 }
 
 // twilight finds the Sun's crossings in [from, to).

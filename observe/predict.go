@@ -60,13 +60,13 @@ type Coverage struct {
 // counts as wholly usable, and a usable part of it as none.
 const eventTol = 1e-6
 
-// event evaluates the extremum at cycle of track tr, seen at jd (UTC), whose
-// coverage window ws holds (see windowSpans).
-func (tb *skyTable) event(tr *track, c *Constraints, cycle float64, secondary bool, jd float64, ws *winSpans) Event {
+// event evaluates, into e, the extremum at cycle of track tr, seen at jd
+// (UTC), whose coverage window ws holds (see windowSpans).
+func (tb *skyTable) event(e *Event, tr *track, c *Constraints, cycle float64, secondary bool, jd float64, ws *winSpans) {
 	tg := tr.tg
 	eph := &tg.Ephemeris
 	T := eph.At(cycle)
-	e := Event{
+	*e = Event{
 		Target: tg.Name, TargetIndex: tr.idx, Kind: tg.eventKind(secondary), Secondary: secondary,
 		Cycle: cycle, EphemerisJD: T, Scale: eph.Scale, SigmaDays: eph.Sigma(cycle),
 		UTC: mustTime(jd),
@@ -133,8 +133,7 @@ func (tb *skyTable) event(tr *track, c *Constraints, cycle float64, secondary bo
 		}
 	}
 	cv.Whole = e.Observable && cv.Reasons == 0 && cv.UsableFraction >= 1-eventTol
-	e.Score = score(&e, tg)
-	return e
+	e.Score = score(e, tg)
 }
 
 // moonStepCheck is the step (days, 5 minutes) at which the Moon's distance
@@ -193,15 +192,9 @@ const seenMarginDays = 0.02
 // first error fn returns.
 func cycles(tg *Target, secondary bool, from, to float64, fn func(cycle float64, sec bool) error) error {
 	eph := &tg.Ephemeris
-	e0 := math.Floor(eph.Cycle(from-seenMarginDays)) - 1
-	e1 := math.Ceil(eph.Cycle(to+seenMarginDays)) + 1
-	n := e1 - e0
-	if secondary {
-		n *= 2
-	}
-	if n > maxEventsPerRun {
-		return fmt.Errorf("observe: target %q: %.0f events from %s to %s: at most %d; shorten the span",
-			tg.Name, n, mustTime(from), mustTime(to), maxEventsPerRun)
+	e0, e1, err := cycleRange(tg, secondary, from, to)
+	if err != nil {
+		return err
 	}
 	call := func(cyc float64, sec bool) error {
 		if T := eph.At(cyc); T < from-seenMarginDays || T >= to+seenMarginDays {
@@ -217,6 +210,77 @@ func cycles(tg *Target, secondary bool, from, to float64, fn func(cycle float64,
 		}
 		if err := call(e, false); err != nil {
 			return err
+		}
+	}
+	return nil
+}
+
+// cycleRange returns the first and last whole cycles cycles visits, or an
+// error when the span holds more than maxEventsPerRun events of tg.
+func cycleRange(tg *Target, secondary bool, from, to float64) (e0, e1 float64, err error) {
+	eph := &tg.Ephemeris
+	e0 = math.Floor(eph.Cycle(from-seenMarginDays)) - 1
+	e1 = math.Ceil(eph.Cycle(to+seenMarginDays)) + 1
+	n := e1 - e0
+	if secondary {
+		n *= 2
+	}
+	if n > maxEventsPerRun {
+		return 0, 0, fmt.Errorf("observe: target %q: %.0f events from %s to %s: at most %d; shorten the span",
+			tg.Name, n, mustTime(from), mustTime(to), maxEventsPerRun)
+	}
+	return e0, e1, nil
+}
+
+// cyclesNear calls fn, as cycles does, for those of its cycles whose
+// ephemeris time T lies within pad of the spans in (that is, in one of the
+// spans widened by pad on each side), in time order. It gives the same
+// error as cycles when the span holds too many events.
+func cyclesNear(tg *Target, secondary bool, from, to float64, in spans, pad float64, fn func(cycle float64, sec bool) error) error {
+	eph := &tg.Ephemeris
+	e0, e1, err := cycleRange(tg, secondary, from, to)
+	if err != nil {
+		return err
+	}
+	if !(eph.PeriodAt(e0) > 0 && eph.PeriodAt(e1) > 0) {
+		// T(E) is not monotonic over the span (Ephemeris.Validate rules
+		// this out within the supported range): test every cycle.
+		return cycles(tg, secondary, from, to, func(cyc float64, sec bool) error {
+			if T := eph.At(cyc); !in.meets(T-pad, math.Nextafter(T+pad, math.Inf(1))) {
+				return nil
+			}
+			return fn(cyc, sec)
+		})
+	}
+	lo, hi := from-seenMarginDays, to+seenMarginDays
+	step := 1.0
+	if secondary {
+		step = 0.5
+	}
+	done := math.Inf(-1)     // ephemeris times below it have been visited
+	c, started := 0.0, false // the next cycle to try
+	for _, s := range in {
+		a, b := max(s.a-pad, lo, done), min(s.b+pad, hi)
+		if !(b > a) {
+			continue
+		}
+		done = b
+		if !started || eph.At(c) < a {
+			c0 := math.Floor(eph.Cycle(a)/step)*step - step // at or before the first at a
+			if !started || c0 > c {
+				c, started = c0, true
+			}
+		}
+		for ; ; c += step {
+			T := eph.At(c)
+			if T >= b {
+				break
+			}
+			if T >= a {
+				if err := fn(c, c != math.Floor(c)); err != nil {
+					return err
+				}
+			}
 		}
 	}
 	return nil

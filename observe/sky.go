@@ -19,6 +19,7 @@ type skyTable struct {
 	// instants from anc0, ancStep apart, covering the span.
 	anc0, ancStep float64
 	nAnc          int
+	clearRate     float64 // clearRate(site)
 }
 
 // newTable prepares the sky over [from, to] (JD UTC) with the Sun limit
@@ -29,10 +30,11 @@ func newTable(site *Site, from, to, sunLimitDeg float64) (*skyTable, error) {
 		return nil, err
 	}
 	tb := &skyTable{
-		site:  site,
-		span:  span,
-		dark:  toSpans(span.SunBelow(sunLimitDeg)),
-		night: toSpans(span.SunBelow(ephem.SunriseAltDeg)),
+		site:      site,
+		span:      span,
+		dark:      toSpans(span.SunBelow(sunLimitDeg)),
+		night:     toSpans(span.SunBelow(ephem.SunriseAltDeg)),
+		clearRate: clearRate(site),
 	}
 	tb.nAnc = int(math.Ceil((to-from)/anchorStepDays)) + 1
 	tb.anc0, tb.ancStep = from, (to-from)/float64(tb.nAnc-1)

@@ -59,6 +59,17 @@ func (s spans) first(t float64) int {
 	return lo
 }
 
+// firstFrom returns s.first(t), trying the index guess (such as the
+// answer for a nearby earlier t) and the one after it before searching.
+func (s spans) firstFrom(t float64, guess int) int {
+	for i := max(guess, 0); i <= min(guess+1, len(s)); i++ {
+		if (i == len(s) || s[i].b > t) && (i == 0 || s[i-1].b <= t) {
+			return i
+		}
+	}
+	return s.first(t)
+}
+
 // meets reports whether s has a part of positive length in [lo, hi).
 func (s spans) meets(lo, hi float64) bool {
 	i := s.first(lo)

@@ -60,6 +60,7 @@ type winSpans struct {
 	lo, hi                  float64
 	high, hc, usable, hcBuf spans
 	clear                   spans
+	dark0                   int // the first dark span that meets the window
 }
 
 // total returns the summed length of s.
@@ -96,7 +97,9 @@ const clearTolH = 4e-4
 // clearH appends to out the hour-angle intervals in which a star on the
 // diurnal circle c is above the horizon profile, within |H| < hMin (where it
 // is above the site's lowest altitude). Above the profile's highest point no
-// sampling is needed.
+// sampling is needed. Where the star stands far from the profile, the
+// samples that cannot change sign (by the bound tb.clearRate) are passed
+// over: the samples compared, and so the crossings, are the same as without.
 func (tb *skyTable) clearH(c ephem.DiurnalCircle, hMin float64, out []hspan) []hspan {
 	if hMin <= 0 {
 		return out
@@ -112,12 +115,29 @@ func (tb *skyTable) clearH(c ephem.DiurnalCircle, hMin float64, out []hspan) []h
 	}
 	n := int(math.Ceil(2 * hMin / clearStepH))
 	step := 2 * hMin / float64(n)
+	perStep := tb.clearRate * 15 * step // degrees g can change in one step
 	a, ga := -hMin, g(-hMin)
 	start := math.NaN()
 	if ga > 0 {
 		start = a
 	}
-	for i := 1; i <= n; i++ {
+	for i := 0; i < n; {
+		// Samples i+1 … i+k keep the sign of ga: pass to sample i+k.
+		// The bound holds outside |H| < hMax, where the star is below
+		// the profile's highest point.
+		if perStep > 0 && math.Abs(a) >= hMax {
+			k := int(min(math.Abs(ga)/perStep, float64(n-i)))
+			if a < 0 { // not past the side of the meridian
+				k = min(k, int((-hMax-a)/step))
+			}
+			if k > 0 {
+				i += k
+				a = -hMin + float64(i)*step
+				ga = g(a)
+				continue
+			}
+		}
+		i++
 		b := -hMin + float64(i)*step
 		gb := g(b)
 		if (ga > 0) != (gb > 0) {
@@ -135,6 +155,35 @@ func (tb *skyTable) clearH(c ephem.DiurnalCircle, hMin float64, out []hspan) []h
 		out = append(out, hspan{start, hMin})
 	}
 	return out
+}
+
+// clearRate bounds how fast (degrees per degree of hour angle) a star's
+// altitude h less the profile's altitude behind it can change while the
+// star stands between the site's lowest altitude and the profile's highest
+// point: the altitude changes at most |cos φ| times as fast as the hour
+// angle, the azimuth at most |sin φ| + |cos φ| |tan h| times (Meeus 1998,
+// eqs. 13.5 and 13.6, differentiated), and the profile by its steepest
+// slope per degree of azimuth. 10% is added for rounding. It is 0 without a
+// profile or when the profile reaches within a degree of the zenith, where
+// no useful bound exists.
+func clearRate(site *Site) float64 {
+	h := site.Horizon
+	n := len(h)
+	if n == 0 || h.MaxAltDeg() > 89 {
+		return 0
+	}
+	slope := 0.0
+	for i := range n {
+		p, q := h[i], h[(i+1)%n]
+		daz := q.AzDeg - p.AzDeg
+		if i == n-1 {
+			daz += 360
+		}
+		slope = max(slope, math.Abs(q.AltDeg-p.AltDeg)/daz)
+	}
+	sl, cl := math.Sincos(site.LatDeg * deg2rad)
+	tanH := max(math.Abs(math.Tan(site.MinAltDeg*deg2rad)), math.Abs(math.Tan(h.MaxAltDeg()*deg2rad)))
+	return 1.1 * (math.Abs(cl) + slope*(math.Abs(sl)+math.Abs(cl)*tanH))
 }
 
 // illinois returns the root of g in [lo, hi] (g(lo) = glo and g(hi) = ghi
@@ -175,7 +224,40 @@ func illinois(g func(float64) float64, lo, hi, glo, ghi, tol float64) float64 {
 // steeply, and by more where its path grazes the profile.
 func (tb *skyTable) windowSpans(tr *track, jd, hw float64, ws *winSpans) {
 	lo, hi := jd-hw, jd+hw
-	site := tb.site
+	tt, dec := tb.highSpans(tr, jd, hw, ws)
+	ws.hc = ws.high
+	if len(tb.site.Horizon) > 0 && len(ws.high) > 0 {
+		if !tr.clrDone {
+			tb.setClear(tr, dec)
+		}
+		ws.clear = ws.clear[:0]
+		for n := -1.0; n <= 1; n++ {
+			tn := tt + n*siderealDay
+			for _, c := range tr.clr {
+				ws.clear = ws.clear.add(max(lo, tn+c.a*hourDays), min(hi, tn+c.b*hourDays))
+			}
+		}
+		ws.hcBuf = ws.high.intersect(ws.clear, ws.hcBuf)
+		ws.hc = ws.hcBuf
+	}
+	// dark ∩ hc, with the dark spans that meet the window.
+	d0 := tb.dark.firstFrom(lo, ws.dark0)
+	ws.dark0 = d0
+	d1 := d0
+	for d1 < len(tb.dark) && tb.dark[d1].a < hi {
+		d1++
+	}
+	ws.usable = tb.dark[d0:d1].intersect(ws.hc, ws.usable)
+}
+
+// highSpans sets ws.lo and ws.hi to the window [jd − hw, jd + hw] and
+// ws.high to its spans in which the star of tr stands above the site's
+// lowest altitude, with the right ascension and that altitude's hour angle
+// interpolated between the anchors (see windowSpans). It returns the
+// transit nearest jd (JD UTC) and the declination interpolated at jd
+// (degrees).
+func (tb *skyTable) highSpans(tr *track, jd, hw float64, ws *winSpans) (tt, dec float64) {
+	lo, hi := jd-hw, jd+hw
 	i, x := 0, 0.0 // interpolate between anchors i and i+1
 	if n := len(tr.ra); n > 1 {
 		x = (jd - tb.anc0) / tb.ancStep
@@ -190,7 +272,7 @@ func (tb *skyTable) windowSpans(tr *track, jd, hw float64, ws *winSpans) {
 	}
 	ra, h0 := lerp(tr.ra), lerp(tr.h0)
 	ha := wrap12(tb.span.LocalSiderealHours(mustTime(jd)) - ra)
-	tt := jd - ha*hourDays // the transit nearest jd
+	tt = jd - ha*hourDays // the transit nearest jd
 	ws.lo, ws.hi = lo, hi
 	ws.high = ws.high[:0]
 	if h0 > 0 {
@@ -199,29 +281,94 @@ func (tb *skyTable) windowSpans(tr *track, jd, hw float64, ws *winSpans) {
 			ws.high = ws.high.add(max(lo, tn-h0*hourDays), min(hi, tn+h0*hourDays))
 		}
 	}
-	ws.hc = ws.high
-	if len(site.Horizon) > 0 && len(ws.high) > 0 {
-		if !tr.clrDone {
-			circle := ephem.NewDiurnalCircle(site.LatDeg, lerp(tr.dec))
-			hMin, _ := circle.HourAngleAt(site.MinAltDeg)
-			tr.clr = tb.clearH(circle, hMin, tr.clr[:0])
-			tr.clrDone = true
+	return tt, lerp(tr.dec)
+}
+
+// setClear finds the hour-angle intervals in which the star of tr, at
+// declination dec (degrees), stands clear of the horizon profile (clearH),
+// and keeps them for the target's later windows.
+func (tb *skyTable) setClear(tr *track, dec float64) {
+	circle := ephem.NewDiurnalCircle(tb.site.LatDeg, dec)
+	hMin, _ := circle.HourAngleAt(tb.site.MinAltDeg)
+	tr.clr = tb.clearH(circle, hMin, tr.clr[:0])
+	tr.clrDone = true
+}
+
+// candPadDays widens the spans of candidates beyond the error of their
+// transits (see candidates): 86 s.
+const candPadDays = 1e-3
+
+// candidates returns, appended to out[:0], spans covering every instant in
+// [from, to] (JD UTC, within the table) at which the Sun is below the
+// planner's limit and the star of tr may stand above the site's lowest
+// altitude: the dark spans cut to the star's hours above that altitude
+// about each of its transits, with the widest hour angle h0 of any anchor.
+// The transits are placed as windowSpans places them, but with the right
+// ascension interpolated near the transit (a window interpolates it at its
+// own instant, up to a day and a half from the transit it uses); the
+// spans are widened by candPadDays plus what three days of the right
+// ascension's fastest drift move a transit, so that no window with a usable
+// part misses them. A forecast solves the light time only for the extrema
+// whose window may meet them. It returns the spans and high, its scratch
+// space for the star's hours.
+func (tb *skyTable) candidates(tr *track, from, to float64, out, high spans) (spans, spans) {
+	out, high = out[:0], high[:0]
+	h0, rate := 0.0, 0.0 // widest hour angle (hours); fastest drift in RA (hours a day)
+	for i, h := range tr.h0 {
+		h0 = max(h0, h)
+		if i > 0 {
+			rate = max(rate, math.Abs(tr.ra[i]-tr.ra[i-1])/tb.ancStep)
 		}
-		ws.clear = ws.clear[:0]
-		for n := -1.0; n <= 1; n++ {
-			tn := tt + n*siderealDay
-			for _, c := range tr.clr {
-				ws.clear = ws.clear.add(max(lo, tn+c.a*hourDays), min(hi, tn+c.b*hourDays))
+	}
+	switch {
+	case h0 <= 0:
+		return out, high
+	case h0 >= 12:
+		for _, d := range tb.dark[tb.dark.first(from):] {
+			if d.a > to {
+				break
+			}
+			out = append(out, d)
+		}
+		return out, high
+	}
+	spanLo, spanHi := tb.span.From().JDUTC(), tb.span.To().JDUTC()
+	last := len(tr.ra) - 1
+	seg := func(t float64) (int, float64) { // anchor segment of t, position in it
+		x := max(0, min((t-tb.anc0)/tb.ancStep, float64(last)))
+		i := min(int(x), max(last-1, 0))
+		return i, x - float64(i)
+	}
+	// transit returns the transit nearest t (within the table), as
+	// windowSpans finds it, with the right ascension interpolated at t.
+	transit := func(t float64) float64 {
+		i, x := seg(t)
+		ra := tr.ra[i]
+		if last > 0 {
+			ra += x * (tr.ra[i+1] - tr.ra[i])
+		}
+		return t - wrap12(tb.span.LocalSiderealHours(mustTime(t))-ra)*hourDays
+	}
+	half := h0*hourDays + candPadDays + 3*rate*hourDays
+	// From the transit before the one nearest from to the last that
+	// reaches to. Within an anchor segment the right ascension changes
+	// linearly, at s hours a day, and the transits follow each other every
+	// siderealDay / (1 − s·hourDays); they are found afresh in each segment.
+	tt := transit(max(spanLo, min(from, spanHi))) - siderealDay
+	i, _ := seg(tt)
+	for tt-half < to {
+		high = high.add(tt-half, tt+half)
+		s := 0.0
+		if last > 0 {
+			s = (tr.ra[i+1] - tr.ra[i]) / tb.ancStep
+		}
+		tt += siderealDay / (1 - s*hourDays)
+		if j, _ := seg(tt); j != i {
+			i = j
+			if tt >= spanLo && tt <= spanHi {
+				tt = transit(tt)
 			}
 		}
-		ws.hcBuf = ws.high.intersect(ws.clear, ws.hcBuf)
-		ws.hc = ws.hcBuf
 	}
-	// dark ∩ hc, with the dark spans that meet the window.
-	d0 := tb.dark.first(lo)
-	d1 := d0
-	for d1 < len(tb.dark) && tb.dark[d1].a < hi {
-		d1++
-	}
-	ws.usable = tb.dark[d0:d1].intersect(ws.hc, ws.usable)
+	return tb.dark.intersect(high, out), high
 }
