@@ -64,10 +64,11 @@
 // where the star, the Sun and the Moon stand (SkySpan.Circumstances). The
 // star's altitude is a sinusoid in hour angle (Meeus 1998, eq. 13.6), so the
 // spans above the lowest altitude follow in closed form from its apparent
-// place, computed at anchors at most 32 days apart and interpolated
-// (ephem.DiurnalCircle, Meeus eq. 15.1); only a horizon profile is sampled,
-// once per target, in hour angle. BenchmarkForecast10k measures 10,000
-// targets over 30 nights.
+// place, computed at anchors 32 days apart on a fixed grid of Julian dates
+// and interpolated (ephem.DiurnalCircle, Meeus eq. 15.1); only a horizon
+// profile is sampled, in hour angle, once per target and 32-day block of
+// that grid. So an event's window does not depend on the span asked for.
+// BenchmarkForecast10k measures 10,000 targets over 30 nights.
 //
 // # File formats
 //

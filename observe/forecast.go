@@ -1,8 +1,6 @@
 package observe
 
 import (
-	"errors"
-	"math"
 	"slices"
 	"sync"
 )
@@ -18,11 +16,8 @@ type forecaster struct {
 	w      int32        // this worker's index (in forecastKey)
 	tr     track
 	ws     winSpans
-	cand   spans    // the target's candidate spans (skyTable.candidates)
-	high   spans    // candidates' scratch space
-	scan   winSpans // firstClear's
-	// scanned: firstClear has searched the cycles at or below it.
-	scanned float64
+	cand   spans // the target's candidate spans (skyTable.candidates)
+	high   spans // candidates' scratch space
 }
 
 // target adds to the worker's output the events of tg (index i of the
@@ -34,7 +29,6 @@ func (fc *forecaster) target(tg *Target, i int) error {
 	lo, hi := fc.starts[0], fc.starts[len(fc.starts)-1]
 	eph := &tg.Ephemeris
 	tb.reset(tr, tg, i)
-	fc.scanned = math.Inf(-1)
 	keep := c.KeepAll
 	fn := func(cyc float64, sec bool) error {
 		// An event none of whose window is usable has the verdict "not
@@ -61,11 +55,6 @@ func (fc *forecaster) target(tg *Target, i int) error {
 			if fc.ws.dark0 = d; d == len(tb.dark) || tb.dark[d].a >= jd+hw {
 				return nil
 			}
-			if !tr.clrDone && len(tb.site.Horizon) > 0 {
-				if err := fc.firstClear(cyc); err != nil {
-					return err
-				}
-			}
 		}
 		tb.windowSpans(tr, jd, hw, &fc.ws)
 		if !keep && !(fc.ws.usable.total() > 0) {
@@ -91,52 +80,6 @@ func (fc *forecaster) target(tg *Target, i int) error {
 		hwMax = c.HalfWidthDays(eph.PeriodDays)
 	}
 	return cyclesNear(tg, tg.Secondary, lo, hi, fc.cand, hwMax+seenMarginDays, fn)
-}
-
-// errFound stops firstClear's search.
-var errFound = errors.New("found")
-
-// firstClear sets the target's intervals clear of the horizon profile
-// (skyTable.setClear) from the window that needs them first when the light
-// time is solved for every extremum near a dark span: the first window,
-// before cycle upTo, that meets a dark span and holds some time with the
-// star above the site's lowest altitude. The intervals, and so the
-// forecast, then do not depend on which extrema the candidate spans
-// (skyTable.candidates) pass over. It leaves them unset when no window
-// before upTo needs them; it returns the first error of solving the light
-// time.
-func (fc *forecaster) firstClear(upTo float64) error {
-	tb, c, tr := fc.tb, &fc.p.c, &fc.tr
-	tg := tr.tg
-	eph := &tg.Ephemeris
-	lo, hi := fc.starts[0], fc.starts[len(fc.starts)-1]
-	err := cycles(tg, tg.Secondary, lo, hi, func(cyc float64, _ bool) error {
-		if cyc >= upTo {
-			return errFound
-		}
-		if cyc <= fc.scanned {
-			return nil
-		}
-		fc.scanned = cyc
-		T := eph.At(cyc)
-		hw := c.HalfWidthDays(eph.PeriodAt(cyc))
-		if !tb.dark.meets(T-hw-seenMarginDays, T+hw+seenMarginDays) {
-			return nil
-		}
-		jd, err := tb.seen(tr, T)
-		if err != nil || jd < lo || jd >= hi || !tb.dark.meets(jd-hw, jd+hw) {
-			return err
-		}
-		if _, dec := tb.highSpans(tr, jd, hw, &fc.scan); len(fc.scan.high) > 0 {
-			tb.setClear(tr, dec)
-			return errFound
-		}
-		return nil
-	})
-	if err == errFound {
-		return nil
-	}
-	return err
 }
 
 // forecastKey places one event of a forecast: its instant and target (the

@@ -372,3 +372,98 @@ func TestSpansFirstFrom(t *testing.T) {
 		}
 	}
 }
+
+// sunEdgeTol bounds how far the usable part of a window may differ between
+// sky tables over different spans when darkness bounds it: each table finds
+// the Sun's crossings of the limit from its own samples, to 0.2 s
+// (ephem.SkySpan), at both ends of the window.
+const sunEdgeTol = 0.4 / secPerDay
+
+// TestWindowsIndependentOfSpan: an event's coverage window depends only on
+// the target and the event's own time, at a site with a horizon profile:
+// the plan of one night (Night) and a forecast of 30 nights (with and
+// without KeepAll) give the same verdict, reasons and edges, and the same
+// usable fraction to the last bit where the window lies wholly in darkness
+// (elsewhere to the Sun's crossings, sunEdgeTol). The span crosses a
+// boundary of the anchors' grid (anchorStepDays) in 2027 January.
+func TestWindowsIndependentOfSpan(t *testing.T) {
+	site := benchSite(t)
+	targets := benchCatalogue(2000)
+	p, err := NewPlanner(site, DefaultConstraints())
+	if err != nil {
+		t.Fatal(err)
+	}
+	all := *p
+	all.c.KeepAll = true
+	date := time.Date(2026, 12, 20, 0, 0, 0, 0, time.UTC)
+	const nights = 30
+	kept, err := p.Forecast(targets, date, nights)
+	if err != nil {
+		t.Fatal(err)
+	}
+	every, err := all.Forecast(targets, date, nights)
+	if err != nil {
+		t.Fatal(err)
+	}
+	type id struct {
+		target int
+		cycle  float64
+	}
+	byID := func(evs []Event) map[id]Event {
+		m := make(map[id]Event, len(evs))
+		for _, e := range evs {
+			m[id{e.TargetIndex, e.Cycle}] = e
+		}
+		return m
+	}
+	// KeepAll solves every extremum; the plans keep some: the same events
+	// must come out bit for bit.
+	for n := range kept {
+		m := byID(every[n].Events)
+		for _, e := range kept[n].Events {
+			w, ok := m[id{e.TargetIndex, e.Cycle}]
+			if got, want := fmt.Sprintf("%+v", e), fmt.Sprintf("%+v", w); !ok || got != want {
+				t.Errorf("night %d, target %d cycle %v:\n got %s\nwant %s (KeepAll)", n, e.TargetIndex, e.Cycle, got, want)
+			}
+		}
+	}
+	exact, near := 0, 0
+	for _, n := range []int{0, 12, 13, 14, 29} {
+		one, err := p.Night(targets, date.AddDate(0, 0, n))
+		if err != nil {
+			t.Fatal(err)
+		}
+		m := byID(kept[n].Events)
+		for _, w := range one.Events {
+			g, ok := m[id{w.TargetIndex, w.Cycle}]
+			if !ok {
+				t.Errorf("night %d: target %d cycle %v (usable %.6f) planned for the night, missing from the forecast",
+					n, w.TargetIndex, w.Cycle, w.Window.UsableFraction)
+				continue
+			}
+			gw, ww := g.Window, w.Window
+			gw.UsableFraction, ww.UsableFraction = 0, 0
+			dark := w.Window.Reasons&(Twilight|Daylight) == 0
+			d := (g.Window.UsableFraction - w.Window.UsableFraction) * 2 * w.Window.HalfWidthDays
+			switch {
+			case g.Observable != w.Observable || g.Reasons != w.Reasons || gw != ww:
+				t.Errorf("night %d, target %d cycle %v: forecast %v %q window %+v, night plan %v %q window %+v",
+					n, w.TargetIndex, w.Cycle, g.Observable, g.Reasons, g.Window, w.Observable, w.Reasons, w.Window)
+			case dark && d != 0:
+				t.Errorf("night %d, target %d cycle %v, window wholly dark: usable %v in the forecast, %v in the night plan: diff %.3g s, want 0",
+					n, w.TargetIndex, w.Cycle, g.Window.UsableFraction, w.Window.UsableFraction, d*secPerDay)
+			case math.Abs(d) > sunEdgeTol:
+				t.Errorf("night %d, target %d cycle %v: usable %v in the forecast, %v in the night plan: diff %.3g s, tol %.3g s",
+					n, w.TargetIndex, w.Cycle, g.Window.UsableFraction, w.Window.UsableFraction, d*secPerDay, sunEdgeTol*secPerDay)
+			}
+			if dark {
+				exact++
+			} else {
+				near++
+			}
+		}
+	}
+	if exact < 500 || near < 100 {
+		t.Errorf("compared %d wholly dark windows and %d others, want at least 500 and 100: the case tests too little", exact, near)
+	}
+}

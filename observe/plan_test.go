@@ -15,7 +15,7 @@ import (
 // numbers.
 func TestForecastMatchesPredict(t *testing.T) {
 	// Three nights of many targets, and thirty nights (whose stars' places
-	// are interpolated between anchors 30 days apart) of a few.
+	// are interpolated between anchors 32 days apart) of a few.
 	for _, c := range []struct{ targets, nights int }{{40, 3}, {8, 30}} {
 		t.Run(fmt.Sprintf("%d targets, %d nights", c.targets, c.nights), func(t *testing.T) {
 			forecastMatchesPredict(t, c.targets, c.nights)
@@ -76,7 +76,8 @@ func forecastMatchesPredict(t *testing.T, nTargets, nights int) {
 					continue
 				}
 				// The forecast's sky table spans more days: the same event
-				// agrees to the interpolation's rounding.
+				// agrees to the Sun's crossings each table finds from its
+				// own samples (see TestWindowsIndependentOfSpan).
 				if d := g.UTC.Sub(w.UTC) * secPerDay; math.Abs(d) > 1e-3 || math.Abs(g.AltDeg-w.AltDeg) > 1e-3 ||
 					math.Abs(g.Window.UsableFraction-w.Window.UsableFraction) > 1e-3 || g.Observable != w.Observable {
 					t.Errorf("night %d: %s cycle %v: forecast %s alt %.4f usable %.4f, Predict %s alt %.4f usable %.4f",

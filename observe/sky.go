@@ -16,9 +16,16 @@ type skyTable struct {
 	dark  spans // the Sun below Constraints.SunAltDeg
 	night spans // the Sun below the horizon (ephem.SunriseAltDeg)
 	// The anchors at which each star's apparent place is computed: nAnc
-	// instants from anc0, ancStep apart, covering the span.
+	// instants from anc0, ancStep apart, covering the table. They are the
+	// whole multiples of anchorStepDays (JD UTC) from the last at or before
+	// the table's start, each with its exact view in ancSky (its own
+	// ephem.Frame), so that a star's place interpolated at an instant does
+	// not depend on the span the table covers. A table within anchorStepDays
+	// of either end of ephem's range, where that grid would leave the range,
+	// spreads them evenly from its own start instead, with ancSky nil.
 	anc0, ancStep float64
 	nAnc          int
+	ancSky        []*ephem.Sky
 	clearRate     float64 // clearRate(site)
 }
 
@@ -36,8 +43,20 @@ func newTable(site *Site, from, to, sunLimitDeg float64) (*skyTable, error) {
 		night:     toSpans(span.SunBelow(ephem.SunriseAltDeg)),
 		clearRate: clearRate(site),
 	}
-	tb.nAnc = int(math.Ceil((to-from)/anchorStepDays)) + 1
-	tb.anc0, tb.ancStep = from, (to-from)/float64(tb.nAnc-1)
+	k0, k1 := math.Floor(from/anchorStepDays), math.Ceil(to/anchorStepDays)
+	_, err0 := ephem.FromJDUTC(k0 * anchorStepDays)
+	_, err1 := ephem.FromJDUTC(k1 * anchorStepDays)
+	if err0 != nil || err1 != nil {
+		tb.nAnc = int(math.Ceil((to-from)/anchorStepDays)) + 1
+		tb.anc0, tb.ancStep = from, (to-from)/float64(tb.nAnc-1)
+		return tb, nil
+	}
+	tb.nAnc = int(k1-k0) + 1
+	tb.anc0, tb.ancStep = k0*anchorStepDays, anchorStepDays
+	tb.ancSky = make([]*ephem.Sky, tb.nAnc)
+	for i := range tb.ancSky {
+		tb.ancSky[i] = ephem.NewSky(site.Site, mustTime(tb.anc0+float64(i)*anchorStepDays))
+	}
 	return tb, nil
 }
 

@@ -18,26 +18,51 @@ type track struct {
 	// unwrapped) and the hour angle (hours) at which the star passes the
 	// site's lowest altitude: 0 when it never rises so high, 12 when it
 	// never sets below (ephem.DiurnalCircle.HourAngleAt).
-	ra, h0, dec []float64 // dec: apparent declination (degrees)
-	// clr: hour-angle intervals (hours) clear of the horizon profile,
-	// computed on first use with the declination of that window (it
-	// drifts by under 20″ in a month: see windowSpans).
-	clr     []hspan
-	clrDone bool
+	ra, h0 []float64
+	// clr holds the hour-angle intervals clear of the horizon profile of
+	// the last two blocks of anchorStepDays the target's windows met
+	// (skyTable.clearAt); clrNext is the slot to fill next.
+	clr     [2]clearBlock
+	clrNext int
 }
 
-// anchorStepDays is the longest step between the anchors at which a star's
-// apparent place is computed for its windows: over 32 days the annual
-// aberration (20.5″) departs from a straight line by under 1″, so the
-// interpolated transits and hour angles err by well under a second.
+// clearBlock is a star's hour-angle intervals (hours) clear of the horizon
+// profile in block k of anchorStepDays (skyTable.clearAt).
+type clearBlock struct {
+	k  float64
+	ok bool
+	h  []hspan
+}
+
+// anchorStepDays is the step (whole days) between the anchors at which a
+// star's apparent place is computed for its windows (skyTable), and the
+// length of the blocks in which its hour-angle intervals clear of the
+// horizon profile are found once, for its declination at the block's
+// anchor (skyTable.clearAt). Over 32 days the annual aberration (20.5″)
+// departs from a straight line by under 1″, so the interpolated transits
+// and hour angles err by well under a second. In 32 days the declination
+// drifts by at most 2π·32/365.25 × 20.5″ ≈ 11″ through the annual
+// aberration, by about 2″ through precession and nutation (Meeus 1998,
+// chs. 21–23) and by under 1″ through a proper motion of 10″ a year, which
+// moves an edge set by the profile by under a second where the star
+// crosses the profile steeply (more where its path grazes the profile).
+// The anchors and blocks are fixed in absolute time, so that the edges of
+// an event's window depend only on the target and the event's own time:
+// not on the span asked for, nor on which windows came first.
 const anchorStepDays = 32.0
 
 // reset prepares tr for target tg (index idx of the caller's list).
 func (tb *skyTable) reset(tr *track, tg *Target, idx int) {
-	*tr = track{tg: tg, idx: idx, v: tg.Star.Vec(), ra: tr.ra[:0], h0: tr.h0[:0], dec: tr.dec[:0], clr: tr.clr[:0]}
+	*tr = track{tg: tg, idx: idx, v: tg.Star.Vec(), ra: tr.ra[:0], h0: tr.h0[:0],
+		clr: [2]clearBlock{{h: tr.clr[0].h[:0]}, {h: tr.clr[1].h[:0]}}}
 	site := tb.site
 	for i := 0; i < tb.nAnc; i++ {
-		p := tb.span.Star(&tr.v, mustTime(tb.anc0+float64(i)*tb.ancStep))
+		var p ephem.Position
+		if tb.ancSky != nil {
+			p = tb.ancSky[i].Star(&tr.v)
+		} else {
+			p = tb.span.Star(&tr.v, mustTime(tb.anc0+float64(i)*tb.ancStep))
+		}
 		ra := p.RAHours
 		if i > 0 {
 			ra = tr.ra[i-1] + wrap12(ra-tr.ra[i-1])
@@ -45,7 +70,6 @@ func (tb *skyTable) reset(tr *track, tg *Target, idx int) {
 		h0, _ := ephem.NewDiurnalCircle(site.LatDeg, p.DecDeg).HourAngleAt(site.MinAltDeg)
 		tr.ra = append(tr.ra, ra)
 		tr.h0 = append(tr.h0, h0)
-		tr.dec = append(tr.dec, p.DecDeg)
 	}
 }
 
@@ -217,23 +241,18 @@ func illinois(g func(float64) float64, lo, hi, glo, ghi, tol float64) float64 {
 // angle at the site's lowest altitude are interpolated between the anchors;
 // each hour-angle interval is then turned into time about the transits
 // nearest jd (Meeus 1998, eq. 15.1, by ephem.DiurnalCircle). The intervals
-// clear of the horizon profile are found once per target, for the
-// declination of its first window that needs them: over a month the
-// declination drifts by up to 20″ (annual aberration), which moves an edge
-// set by the profile by about a second where the star crosses the profile
-// steeply, and by more where its path grazes the profile.
+// clear of the horizon profile are those of the star's declination at the
+// start of jd's block of anchorStepDays (clearAt).
 func (tb *skyTable) windowSpans(tr *track, jd, hw float64, ws *winSpans) {
 	lo, hi := jd-hw, jd+hw
-	tt, dec := tb.highSpans(tr, jd, hw, ws)
+	tt := tb.highSpans(tr, jd, hw, ws)
 	ws.hc = ws.high
 	if len(tb.site.Horizon) > 0 && len(ws.high) > 0 {
-		if !tr.clrDone {
-			tb.setClear(tr, dec)
-		}
+		clr := tb.clearAt(tr, jd)
 		ws.clear = ws.clear[:0]
 		for n := -1.0; n <= 1; n++ {
 			tn := tt + n*siderealDay
-			for _, c := range tr.clr {
+			for _, c := range clr {
 				ws.clear = ws.clear.add(max(lo, tn+c.a*hourDays), min(hi, tn+c.b*hourDays))
 			}
 		}
@@ -254,9 +273,8 @@ func (tb *skyTable) windowSpans(tr *track, jd, hw float64, ws *winSpans) {
 // ws.high to its spans in which the star of tr stands above the site's
 // lowest altitude, with the right ascension and that altitude's hour angle
 // interpolated between the anchors (see windowSpans). It returns the
-// transit nearest jd (JD UTC) and the declination interpolated at jd
-// (degrees).
-func (tb *skyTable) highSpans(tr *track, jd, hw float64, ws *winSpans) (tt, dec float64) {
+// transit nearest jd (JD UTC).
+func (tb *skyTable) highSpans(tr *track, jd, hw float64, ws *winSpans) (tt float64) {
 	lo, hi := jd-hw, jd+hw
 	i, x := 0, 0.0 // interpolate between anchors i and i+1
 	if n := len(tr.ra); n > 1 {
@@ -281,17 +299,45 @@ func (tb *skyTable) highSpans(tr *track, jd, hw float64, ws *winSpans) (tt, dec 
 			ws.high = ws.high.add(max(lo, tn-h0*hourDays), min(hi, tn+h0*hourDays))
 		}
 	}
-	return tt, lerp(tr.dec)
+	return tt
 }
 
-// setClear finds the hour-angle intervals in which the star of tr, at
-// declination dec (degrees), stands clear of the horizon profile (clearH),
-// and keeps them for the target's later windows.
-func (tb *skyTable) setClear(tr *track, dec float64) {
+// clearAt returns the hour-angle intervals (hours) in which the star of tr
+// stands clear of the horizon profile (clearH) for a window at jd (UTC):
+// those of its apparent declination at the start of jd's block of
+// anchorStepDays (blockSky), kept for the target's later windows in the
+// block. Two blocks are kept, since a target's windows come mostly in time
+// order.
+func (tb *skyTable) clearAt(tr *track, jd float64) []hspan {
+	k := math.Floor(jd / anchorStepDays)
+	for i := range tr.clr {
+		if c := &tr.clr[i]; c.ok && c.k == k {
+			tr.clrNext = 1 - i
+			return c.h
+		}
+	}
+	c := &tr.clr[tr.clrNext]
+	tr.clrNext = 1 - tr.clrNext
+	dec := tb.blockSky(k).Star(&tr.v).DecDeg
 	circle := ephem.NewDiurnalCircle(tb.site.LatDeg, dec)
 	hMin, _ := circle.HourAngleAt(tb.site.MinAltDeg)
-	tr.clr = tb.clearH(circle, hMin, tr.clr[:0])
-	tr.clrDone = true
+	c.k, c.ok, c.h = k, true, tb.clearH(circle, hMin, c.h[:0])
+	return c.h
+}
+
+// blockSky returns the exact view from the site (its own ephem.Frame, not
+// the sky span's) at the start of block k of anchorStepDays: JD (UTC)
+// k·anchorStepDays, or the block's end when its start precedes ephem's
+// range (1620). That of an anchor of the table serves when there is one.
+func (tb *skyTable) blockSky(k float64) *ephem.Sky {
+	if i := int(k - tb.anc0/anchorStepDays); tb.ancSky != nil && i >= 0 && i < len(tb.ancSky) {
+		return tb.ancSky[i]
+	}
+	t, err := ephem.FromJDUTC(k * anchorStepDays)
+	if err != nil {
+		t = mustTime((k + 1) * anchorStepDays)
+	}
+	return ephem.NewSky(tb.site.Site, t)
 }
 
 // candPadDays widens the spans of candidates beyond the error of their
