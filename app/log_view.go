@@ -83,11 +83,7 @@ func newLogPage(w *Window) Page {
 
 	v.summary = widget.NewLabel("")
 	v.summary.Wrapping = fyne.TextWrapWord
-	v.caution = widget.NewLabel("")
-	v.caution.Importance = widget.DangerImportance
-	v.caution.TextStyle.Bold = true
-	v.caution.Wrapping = fyne.TextWrapWord
-	v.caution.Hide()
+	v.caution = newSunCaution("")
 	v.empty = widget.NewLabel("")
 	v.empty.Wrapping = fyne.TextWrapWord
 	v.empty.Hide()

@@ -52,11 +52,7 @@ func newStarForecastPanel(v *starView) *starForecastPanel {
 	p.all = widget.NewCheck("every extremum", func(bool) { p.build() })
 	p.summary = widget.NewLabel("")
 	p.summary.Wrapping = fyne.TextWrapWord
-	p.caution = widget.NewLabel(observe.SolarWarningText)
-	p.caution.Importance = widget.DangerImportance
-	p.caution.TextStyle.Bold = true
-	p.caution.Wrapping = fyne.TextWrapWord
-	p.caution.Hide()
+	p.caution = newSunCaution(observe.SolarWarningText)
 	p.sigma = widget.NewLabel("")
 	p.sigma.Wrapping = fyne.TextWrapWord
 	p.detail = widget.NewLabel("")

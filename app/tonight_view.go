@@ -41,11 +41,7 @@ func newTonightPage(w *Window) Page {
 	v := &tonightView{w: w, row: -1}
 	v.summary = widget.NewLabel("")
 	v.summary.Truncation = fyne.TextTruncateEllipsis
-	v.caution = widget.NewLabel(observe.SolarWarningText)
-	v.caution.Importance = widget.DangerImportance
-	v.caution.TextStyle.Bold = true
-	v.caution.Wrapping = fyne.TextWrapWord
-	v.caution.Hide()
+	v.caution = newSunCaution(observe.SolarWarningText)
 	v.detail = widget.NewLabel("")
 	v.detail.Wrapping = fyne.TextWrapWord
 	v.empty = widget.NewLabel("")
