@@ -182,3 +182,49 @@ func TestCappedTextsAreDrawn(t *testing.T) {
 		t.Error("Timings page: the note is not drawn")
 	}
 }
+
+// The Star page's forecast table gives its verdict column the room the
+// other columns leave: the columns fill the table's width, the verdict
+// never narrower than its own width, and a wider table widens the verdict.
+func TestStarForecastVerdictTakesTheRoom(t *testing.T) {
+	w, q := openWindow(t, demoLogbook(t))
+	w.Session.SetDate(time.Date(2026, 11, 5, 0, 0, 0, 0, time.UTC))
+	w.Session.Select("Ashgrove V4")
+	sv := starPage(t, w)
+	w.ShowPage("star")
+	settle(t, w, q)
+	p := sv.forecast
+	if len(p.model.Rows) == 0 {
+		t.Fatalf("no forecast rows: %q", p.model.Summary)
+	}
+	verdict := -1
+	for i, c := range p.model.Columns {
+		if c == "Verdict" {
+			verdict = i
+		}
+	}
+	if verdict < 0 || len(p.table.applied) != len(p.model.Columns) {
+		t.Fatalf("columns %v, widths applied %v", p.model.Columns, p.table.applied)
+	}
+	check := func(width float32) float32 {
+		t.Helper()
+		p.table.Resize(fyne.NewSize(width, p.table.Size().Height))
+		var sum float32
+		for _, x := range p.table.applied {
+			sum += x
+		}
+		got := p.table.applied[verdict]
+		if got < starForecastWidths["Verdict"] {
+			t.Errorf("table %.0f wide: verdict column %.0f, narrower than its own %.0f", width, got, starForecastWidths["Verdict"])
+		}
+		if slack := width - sum; got > starForecastWidths["Verdict"] && (slack < 0 || slack > 40) {
+			t.Errorf("table %.0f wide: columns take %.0f, leaving %.0f", width, sum, slack)
+		}
+		return got
+	}
+	check(400) // too narrow for all: the verdict keeps its own width
+	narrow, wide := check(700), check(1100)
+	if wide-narrow != 400 {
+		t.Errorf("verdict column %.0f in a 700-wide table, %.0f in a 1100-wide one: want it to take the extra 400", narrow, wide)
+	}
+}

@@ -3,6 +3,7 @@ package app
 import (
 	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/driver/desktop"
+	"fyne.io/fyne/v2/theme"
 	"fyne.io/fyne/v2/widget"
 )
 
@@ -213,6 +214,47 @@ func (l *keyList) TypedKey(k *fyne.KeyEvent) {
 type keyTable struct {
 	widget.Table
 	w *Window
+	// widths, when set, gives the columns' widths for a table of the
+	// given width; they are applied on every change of width (fitWidths).
+	widths  func(total float32) []float32
+	applied []float32 // the widths applied last
+}
+
+// Resize implements fyne.CanvasObject: with widths set, the columns are
+// fitted to the new width first.
+func (t *keyTable) Resize(s fyne.Size) {
+	if t.widths != nil && s.Width != t.Size().Width {
+		t.fitWidths(s.Width)
+	}
+	t.Table.Resize(s)
+}
+
+// fitWidths sets the columns' widths from t.widths for a table total wide.
+func (t *keyTable) fitWidths(total float32) {
+	t.applied = t.widths(total)
+	for i, w := range t.applied {
+		t.SetColumnWidth(i, w)
+	}
+}
+
+// stretchColumn returns the widths base with column i widened to take what
+// is left of total, if anything is: a long last column (a verdict with its
+// reasons) then shows whole when the table has the room.
+func stretchColumn(base []float32, i int, total float32) []float32 {
+	out := append([]float32(nil), base...)
+	if i < 0 || i >= len(out) {
+		return out
+	}
+	// each column is followed by a divider; the scroll bar overlays the
+	// last column's edge
+	rest := total - float32(len(out))*theme.SeparatorThicknessSize() - theme.ScrollBarSize()
+	for j, w := range out {
+		if j != i {
+			rest -= w
+		}
+	}
+	out[i] = max(out[i], rest)
+	return out
 }
 
 func newKeyTable(w *Window, length func() (int, int), create func() fyne.CanvasObject, update func(widget.TableCellID, fyne.CanvasObject)) *keyTable {

@@ -94,7 +94,7 @@ func newStarPage(w *Window) Page {
 	right := container.New(&starColumnLayout{bottom: v.distance.root, frac: 0.5},
 		v.forecast.root, container.NewVScroll(v.distance.root))
 	v.body = container.NewHSplit(container.NewStack(v.details, v.form.root), right)
-	v.body.Offset = 0.4
+	v.body.Offset = 0.37
 	// The star's name with what can be done to it; the catalogue's actions
 	// on the right.
 	head := container.NewBorder(nil, nil, nil, container.NewHBox(v.add, v.imp, v.exp), v.title)

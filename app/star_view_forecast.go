@@ -62,6 +62,18 @@ func newStarForecastPanel(v *starView) *starForecastPanel {
 	p.empty.Wrapping = fyne.TextWrapWord
 	p.empty.Alignment = fyne.TextAlignCenter
 	p.table = newKeyTable(v.w, func() (int, int) { return len(p.model.Rows), len(p.model.Columns) }, p.newCell, p.updateCell)
+	// the verdict, with its reasons, takes the room the others leave
+	p.table.widths = func(total float32) []float32 {
+		base := make([]float32, len(p.model.Columns))
+		verdict := -1
+		for i, c := range p.model.Columns {
+			base[i] = starForecastWidths[c]
+			if c == "Verdict" {
+				verdict = i
+			}
+		}
+		return stretchColumn(base, verdict, total)
+	}
 	p.table.CreateHeader = func() fyne.CanvasObject {
 		return widget.NewLabelWithStyle("", fyne.TextAlignLeading, fyne.TextStyle{Bold: true})
 	}
@@ -177,9 +189,7 @@ func (p *starForecastPanel) build() {
 			msg = p.model.Summary
 		}
 	}
-	for i, c := range p.model.Columns {
-		p.table.SetColumnWidth(i, starForecastWidths[c])
-	}
+	p.table.fitWidths(p.table.Size().Width)
 	p.summary.SetText(p.model.Summary)
 	p.summary.Hidden = len(p.model.Rows) == 0
 	p.empty.SetText(msg)
