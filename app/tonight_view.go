@@ -70,7 +70,7 @@ func newTonightPage(w *Window) Page {
 	// The table above the chart: at a laptop's width both then show whole
 	// (every column, and the night's full time axis).
 	split := container.NewVSplit(v.left, v.chart)
-	split.Offset = 0.42
+	split.Offset = 0.5
 	v.root = split
 	w.Session.OnChange(v.changed)
 	return v
