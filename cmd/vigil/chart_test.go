@@ -167,17 +167,7 @@ func TestChartBadInput(t *testing.T) {
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			r := vigil(tc.args...)
-			if r.code != exitUsage || r.stdout != "" {
-				t.Errorf("vigil %s: exit %d, stdout %q; want %d and nothing", strings.Join(tc.args, " "), r.code, r.stdout, exitUsage)
-			}
-			if strings.Count(r.stderr, "\n") != 1 || !strings.HasSuffix(r.stderr, "\n") {
-				t.Errorf("stderr = %q, want exactly one line", r.stderr)
-			}
-			for _, want := range tc.want {
-				if !strings.Contains(r.stderr, want) {
-					t.Errorf("stderr = %q, want it to contain %q", r.stderr, want)
-				}
-			}
+			wantFailure(t, tc.args, r, tc.want...)
 			entries, _ := os.ReadDir(dir)
 			if len(entries) != 1 {
 				t.Errorf("%d files in the output directory, want only the old one: %v", len(entries), entries)

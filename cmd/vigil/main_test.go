@@ -80,21 +80,7 @@ func TestBadInput(t *testing.T) {
 		{"help for an unknown command", []string{"help", "frob"}, []string{`"frob"`, "sky, night"}},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			r := vigil(tc.args...)
-			if r.code != exitUsage {
-				t.Errorf("vigil %s: exit %d, want %d", strings.Join(tc.args, " "), r.code, exitUsage)
-			}
-			if r.stdout != "" {
-				t.Errorf("stdout = %q, want nothing on a failed run", r.stdout)
-			}
-			if strings.Count(r.stderr, "\n") != 1 || !strings.HasSuffix(r.stderr, "\n") {
-				t.Errorf("stderr = %q, want exactly one line", r.stderr)
-			}
-			for _, want := range tc.want {
-				if !strings.Contains(r.stderr, want) {
-					t.Errorf("stderr = %q, want it to contain %q", r.stderr, want)
-				}
-			}
+			wantFailure(t, tc.args, vigil(tc.args...), tc.want...)
 		})
 	}
 }
