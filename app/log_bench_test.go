@@ -9,7 +9,6 @@ import (
 	"fyne.io/fyne/v2/test"
 
 	"example.org/vigil/internal/demo"
-	"example.org/vigil/observe/logbook"
 )
 
 // BenchmarkLogNextNight200 measures one step to the next night with 200
@@ -18,22 +17,7 @@ import (
 // on the UI thread putting a new text on show (the window is busy only
 // then), measured apart.
 func BenchmarkLogNextNight200(b *testing.B) {
-	lb := openBench(b, benchLogbook(b, "many200.db", func(p string) error {
-		lb, err := logbook.Create(p)
-		if err != nil {
-			return err
-		}
-		defer lb.Close()
-		if err := lb.AddSite(demo.Site()); err != nil {
-			return err
-		}
-		for _, t := range manyTargets(200) {
-			if err := lb.AddTarget(t, "invented for the benchmarks"); err != nil {
-				return err
-			}
-		}
-		return nil
-	}))
+	lb := many200Logbook(b)
 	fa := test.NewApp()
 	defer fa.Quit()
 	q := newUIQueue()
