@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 	"strconv"
 )
@@ -287,6 +288,63 @@ const (
 	// covered.
 	extremumSignificance = 3.0
 )
+
+// extremumWindow picks the points an extremum is timed from and solves
+// on them (solve returns the time it finds; c is the curve idx indexes).
+// With opt.From < opt.To it takes the points in that range of lc, which
+// must hold extremumMinPoints, and solves once. Otherwise it takes a
+// window of opt.WindowDays about the extremum of the smoothed curve (with
+// no width given: the automatic width for depth fraction frac, widened
+// by a quarter until it holds extremumMinPoints), and centres it on each
+// solution again until its points stay the same, at most maxIter times.
+// It returns the curve and the points of the last solution.
+func extremumWindow(lc *extremumCurve, opt ExtremumOptions, frac float64, maxIter int,
+	solve func(c *extremumCurve, idx []int, centre float64) (float64, error)) (*extremumCurve, []int, error) {
+	fixed := opt.To > opt.From
+	if fixed {
+		lc = lc.subset(extremumSelect(lc.t, opt.From, opt.To))
+		if len(lc.t) < extremumMinPoints {
+			return nil, nil, fmt.Errorf("reduce: window JD %s to %s holds %d points: want at least %d: %w",
+				timingNum(opt.From), timingNum(opt.To), len(lc.t), extremumMinPoints, ErrNoExtremum)
+		}
+	}
+	i0, smooth, dL, dR, err := extremumLocate(lc)
+	if err != nil {
+		return nil, nil, err
+	}
+	centre := lc.t[i0]
+	if fixed {
+		idx := make([]int, len(lc.t))
+		for i := range idx {
+			idx[i] = i
+		}
+		_, err := solve(lc, idx, centre)
+		return lc, idx, err
+	}
+	h := opt.WindowDays / 2
+	if h == 0 {
+		h = extremumHalfWidth(lc, i0, smooth, min(dL, dR), frac)
+	}
+	var idx []int
+	for iter := 0; ; iter++ {
+		sel := extremumSelect(lc.t, centre-h, centre+h)
+		for len(sel) < extremumMinPoints && opt.WindowDays == 0 && len(sel) < len(lc.t) && h > 0 {
+			h *= 1.25 // too few points: widen the automatic window
+			sel = extremumSelect(lc.t, centre-h, centre+h)
+		}
+		if len(sel) < extremumMinPoints {
+			return nil, nil, fmt.Errorf("reduce: window of %.5g d about JD %.5f holds %d points: want at least %d: %w",
+				2*h, centre, len(sel), extremumMinPoints, ErrNoExtremum)
+		}
+		if slices.Equal(sel, idx) || iter == maxIter {
+			return lc, idx, nil
+		}
+		idx = sel
+		if centre, err = solve(lc, idx, centre); err != nil {
+			return nil, nil, err
+		}
+	}
+}
 
 // extremumLocate finds the extremum roughly: the largest value of a running
 // mean of lc.m. It returns the index of that point, the running mean, its

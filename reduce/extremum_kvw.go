@@ -3,7 +3,6 @@ package reduce
 import (
 	"fmt"
 	"math"
-	"slices"
 )
 
 const (
@@ -40,55 +39,14 @@ func extremumKvW(lc *extremumCurve, opt ExtremumOptions) (Timing, error) {
 		folds = kvwDefaultFolds
 	}
 	noise := extremumNoise(lc)
-	fixed := opt.To > opt.From
-	if fixed {
-		lc = lc.subset(extremumSelect(lc.t, opt.From, opt.To))
-		if len(lc.t) < extremumMinPoints {
-			return Timing{}, fmt.Errorf("reduce: window JD %s to %s holds %d points: want at least %d: %w",
-				timingNum(opt.From), timingNum(opt.To), len(lc.t), extremumMinPoints, ErrNoExtremum)
-		}
-	}
-	i0, smooth, dL, dR, err := extremumLocate(lc)
+	var res kvwResult
+	lc, idx, err := extremumWindow(lc, opt, kvwDepthFraction, kvwMaxIter, func(c *extremumCurve, idx []int, centre float64) (float64, error) {
+		var err error
+		res, err = kvwSolve(c.subset(idx), centre, folds, noise)
+		return res.time, err
+	})
 	if err != nil {
 		return Timing{}, err
-	}
-	var idx []int
-	var res kvwResult
-	if fixed {
-		idx = make([]int, len(lc.t))
-		for i := range idx {
-			idx[i] = i
-		}
-		res, err = kvwSolve(lc.subset(idx), lc.t[i0], folds, noise)
-		if err != nil {
-			return Timing{}, err
-		}
-	} else {
-		h := opt.WindowDays / 2
-		if h == 0 {
-			h = extremumHalfWidth(lc, i0, smooth, min(dL, dR), kvwDepthFraction)
-		}
-		centre := lc.t[i0]
-		for iter := 0; ; iter++ {
-			sel := extremumSelect(lc.t, centre-h, centre+h)
-			for len(sel) < extremumMinPoints && opt.WindowDays == 0 && len(sel) < len(lc.t) && h > 0 {
-				h *= 1.25
-				sel = extremumSelect(lc.t, centre-h, centre+h)
-			}
-			if len(sel) < extremumMinPoints {
-				return Timing{}, fmt.Errorf("reduce: window of %.5g d about JD %.5f holds %d points: want at least %d: %w",
-					2*h, centre, len(sel), extremumMinPoints, ErrNoExtremum)
-			}
-			if slices.Equal(sel, idx) || iter == kvwMaxIter {
-				break
-			}
-			idx = sel
-			res, err = kvwSolve(lc.subset(idx), centre, folds, noise)
-			if err != nil {
-				return Timing{}, err
-			}
-			centre = res.time
-		}
 	}
 	if err := extremumSides(lc, idx, res.time); err != nil {
 		return Timing{}, err

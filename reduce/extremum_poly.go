@@ -3,7 +3,6 @@ package reduce
 import (
 	"fmt"
 	"math"
-	"slices"
 
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/stat/distuv"
@@ -30,60 +29,18 @@ const (
 // σ is the fit covariance propagated to the root: δx = −Σ_k k x^(k−1) δa_k /
 // m”(x).
 func extremumPoly(lc *extremumCurve, opt ExtremumOptions) (Timing, error) {
-	fixed := opt.To > opt.From
-	if fixed {
-		idx := extremumSelect(lc.t, opt.From, opt.To)
-		lc = lc.subset(idx)
-		if len(lc.t) < extremumMinPoints {
-			return Timing{}, fmt.Errorf("reduce: window JD %s to %s holds %d points: want at least %d: %w",
-				timingNum(opt.From), timingNum(opt.To), len(lc.t), extremumMinPoints, ErrNoExtremum)
-		}
+	frac := polyDepthFraction
+	if opt.Degree == 2 {
+		frac = polyDepthFraction2
 	}
-	i0, smooth, dL, dR, err := extremumLocate(lc)
+	var fit polyFit
+	lc, idx, err := extremumWindow(lc, opt, frac, polyMaxIter, func(c *extremumCurve, idx []int, _ float64) (float64, error) {
+		var err error
+		fit, err = polyFitWindow(c, idx, opt.Degree)
+		return fit.time, err
+	})
 	if err != nil {
 		return Timing{}, err
-	}
-	var idx []int
-	var fit polyFit
-	if fixed {
-		idx = make([]int, len(lc.t))
-		for i := range idx {
-			idx[i] = i
-		}
-		fit, err = polyFitWindow(lc, idx, opt.Degree)
-		if err != nil {
-			return Timing{}, err
-		}
-	} else {
-		h := opt.WindowDays / 2
-		if h == 0 {
-			frac := polyDepthFraction
-			if opt.Degree == 2 {
-				frac = polyDepthFraction2
-			}
-			h = extremumHalfWidth(lc, i0, smooth, min(dL, dR), frac)
-		}
-		centre := lc.t[i0]
-		for iter := 0; ; iter++ {
-			sel := extremumSelect(lc.t, centre-h, centre+h)
-			for len(sel) < extremumMinPoints && opt.WindowDays == 0 && len(sel) < len(lc.t) && h > 0 {
-				h *= 1.25 // too few points: widen the automatic window
-				sel = extremumSelect(lc.t, centre-h, centre+h)
-			}
-			if len(sel) < extremumMinPoints {
-				return Timing{}, fmt.Errorf("reduce: window of %.5g d about JD %.5f holds %d points: want at least %d: %w",
-					2*h, centre, len(sel), extremumMinPoints, ErrNoExtremum)
-			}
-			if slices.Equal(sel, idx) || iter == polyMaxIter {
-				break
-			}
-			idx = sel
-			fit, err = polyFitWindow(lc, idx, opt.Degree)
-			if err != nil {
-				return Timing{}, err
-			}
-			centre = fit.time
-		}
 	}
 	if err := extremumSides(lc, idx, fit.time); err != nil {
 		return Timing{}, err
