@@ -171,11 +171,12 @@ func diffJSON(at string, got, want any) []string {
 	return nil
 }
 
-// readReference reads a CSV table written by testdata/astropy_cli.py: '#'
-// starts a comment line, the first other line is the header.
-func readReference(t *testing.T, name string) []map[string]string {
+// refRows reads a reference table at path into rows keyed by column name:
+// '#' starts a comment line, the first other line is the header, and at
+// least one row must follow.
+func refRows(t *testing.T, path string) []map[string]string {
 	t.Helper()
-	f, err := os.Open(filepath.Join("testdata", name))
+	f, err := os.Open(path)
 	if err != nil {
 		t.Fatalf("reference table: %v", err)
 	}
@@ -183,11 +184,8 @@ func readReference(t *testing.T, name string) []map[string]string {
 	r := csv.NewReader(f)
 	r.Comment = '#'
 	recs, err := r.ReadAll()
-	if err != nil {
-		t.Fatalf("reference table %s: %v", name, err)
-	}
-	if len(recs) < 2 {
-		t.Fatalf("reference table %s has no rows", name)
+	if err != nil || len(recs) < 2 {
+		t.Fatalf("reference table %s: %v (%d records)", path, err, len(recs))
 	}
 	var rows []map[string]string
 	for _, rec := range recs[1:] {
@@ -198,6 +196,12 @@ func readReference(t *testing.T, name string) []map[string]string {
 		rows = append(rows, row)
 	}
 	return rows
+}
+
+// readReference reads a table written by testdata/astropy_cli.py (refRows).
+func readReference(t *testing.T, name string) []map[string]string {
+	t.Helper()
+	return refRows(t, filepath.Join("testdata", name))
 }
 
 // number returns a JSON field as a float64, failing the test when it is not

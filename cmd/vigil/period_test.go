@@ -1,7 +1,6 @@
 package main
 
 import (
-	"encoding/csv"
 	"fmt"
 	"math"
 	"os"
@@ -56,32 +55,6 @@ const (
 	// count the same points in the same bins, so float64 rounding only.
 	pdmThetaTol = 1e-12
 )
-
-// periodRefRows reads a reference table ('#' comments, a header row) into
-// rows keyed by column name.
-func periodRefRows(t *testing.T, path string) []map[string]string {
-	t.Helper()
-	f, err := os.Open(path)
-	if err != nil {
-		t.Fatalf("reference table: %v", err)
-	}
-	defer f.Close()
-	r := csv.NewReader(f)
-	r.Comment = '#'
-	recs, err := r.ReadAll()
-	if err != nil || len(recs) < 2 {
-		t.Fatalf("reference table %s: %v (%d records)", path, err, len(recs))
-	}
-	var rows []map[string]string
-	for _, rec := range recs[1:] {
-		row := map[string]string{}
-		for i, h := range recs[0] {
-			row[h] = rec[i]
-		}
-		rows = append(rows, row)
-	}
-	return rows
-}
 
 // cell reads one number of a reference row.
 func cell(t *testing.T, row map[string]string, col string) float64 {
@@ -158,7 +131,7 @@ func TestPeriodMethodsQuoted(t *testing.T) {
 // astropy at the search's highest frequency), equal weights and 1/err².
 func TestPeriodAgainstAstropy(t *testing.T) {
 	const source = "astropy [A], testdata/period_refs.csv"
-	refs := periodRefRows(t, filepath.Join("testdata", "period_refs.csv"))
+	refs := refRows(t, filepath.Join("testdata", "period_refs.csv"))
 	for _, tc := range []struct {
 		name, file string
 		args       []string
@@ -217,7 +190,7 @@ func TestPeriodFAPAgainstAstropyGrid(t *testing.T) {
 		"nightly":   {nightly, 356, "50"},
 		"highfreq":  {highfreq, 300, fmtRef(1 / 40.0)},
 	}
-	refs := periodRefRows(t, filepath.Join(periodTestdata, "fap.csv"))
+	refs := refRows(t, filepath.Join(periodTestdata, "fap.csv"))
 	seen := map[string]bool{}
 	for _, row := range refs {
 		name := row["name"]
@@ -254,7 +227,7 @@ func TestPeriodFAPAgainstAstropyGrid(t *testing.T) {
 // minimum, a few 0.001 c/d from 1/0.6, has θ(0.6) itself.
 func TestPeriodPDM(t *testing.T) {
 	theta := map[string]float64{}
-	for _, row := range periodRefRows(t, filepath.Join(periodTestdata, "pdm.csv")) {
+	for _, row := range refRows(t, filepath.Join(periodTestdata, "pdm.csv")) {
 		if row["name"] == "methods60" {
 			theta[row["period"]+"/"+row["bins"]+"x"+row["covers"]] = cell(t, row, "theta")
 		}

@@ -1,9 +1,7 @@
 package main
 
 import (
-	"encoding/csv"
 	"math"
-	"os"
 	"path/filepath"
 	"slices"
 	"strconv"
@@ -44,26 +42,7 @@ const (
 // predictRefRows reads a CSV table of predictRefDir ('#' comments, header).
 func predictRefRows(t *testing.T, name string) []map[string]string {
 	t.Helper()
-	f, err := os.Open(filepath.Join(predictRefDir, name))
-	if err != nil {
-		t.Fatalf("reference table: %v", err)
-	}
-	defer f.Close()
-	r := csv.NewReader(f)
-	r.Comment = '#'
-	recs, err := r.ReadAll()
-	if err != nil || len(recs) < 2 {
-		t.Fatalf("reference table %s: %v (%d records)", name, err, len(recs))
-	}
-	var rows []map[string]string
-	for _, rec := range recs[1:] {
-		row := map[string]string{}
-		for i, h := range recs[0] {
-			row[h] = rec[i]
-		}
-		rows = append(rows, row)
-	}
-	return rows
+	return refRows(t, filepath.Join(predictRefDir, name))
 }
 
 // refCaseArgs returns the vigil predict flags of one star of events.csv:

@@ -1,7 +1,6 @@
 package main
 
 import (
-	"encoding/csv"
 	"math"
 	"os"
 	"path/filepath"
@@ -18,24 +17,13 @@ var timingTestdata = filepath.Join("..", "..", "testdata", "timing")
 // numbers make_timing_refs.py computed with numpy.
 func timingRefs(t *testing.T) map[string]float64 {
 	t.Helper()
-	f, err := os.Open(filepath.Join(timingTestdata, "refs.csv"))
-	if err != nil {
-		t.Fatalf("reference table: %v", err)
-	}
-	defer f.Close()
-	r := csv.NewReader(f)
-	r.Comment = '#'
-	recs, err := r.ReadAll()
-	if err != nil || len(recs) < 2 {
-		t.Fatalf("refs.csv: %v (%d records)", err, len(recs))
-	}
 	refs := map[string]float64{}
-	for _, rec := range recs[1:] {
-		v, err := strconv.ParseFloat(rec[1], 64)
+	for _, row := range refRows(t, filepath.Join(timingTestdata, "refs.csv")) {
+		v, err := strconv.ParseFloat(row["value"], 64)
 		if err != nil {
-			t.Fatalf("refs.csv: %s: %v", rec[0], err)
+			t.Fatalf("refs.csv: %s: %v", row["quantity"], err)
 		}
-		refs[rec[0]] = v
+		refs[row["quantity"]] = v
 	}
 	return refs
 }
